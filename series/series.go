@@ -1,0 +1,102 @@
+// Package series holds the Series type — one uniformly sampled scalar record — and everything
+// that moves records in and out of the toolkit: readers for delimited text, NumPy .npy, raw
+// little-endian floats and WAV (each optionally gzipped), the shared preprocessing steps
+// (range selection, detrending, standardisation, decimation) and atomic writers.
+package series
+
+import (
+	"fmt"
+	"math"
+)
+
+// Series is one uniformly sampled scalar record.
+type Series struct {
+	// Values are the samples in time order.
+	Values []float64
+	// Dt is the sampling interval in time units (seconds, years, … as the source states);
+	// 1 when nothing gives it.
+	Dt float64
+	// T0 is the time of the first sample (0 when the source has no time stamps).
+	T0 float64
+	// Name is the column or channel the values came from ("x" when unnamed).
+	Name string
+	// Unit is the unit of the values when known ("" otherwise).
+	Unit string
+	// TimeName is the name of the time column the sampling came from ("" when none).
+	TimeName string
+	// GapsFilled counts NaN/Inf/empty cells that were dropped or interpolated on reading.
+	GapsFilled int
+}
+
+// Len returns the number of samples.
+func (s *Series) Len() int { return len(s.Values) }
+
+// Duration returns (N−1)·Dt, the time spanned by the record.
+func (s *Series) Duration() float64 {
+	if len(s.Values) < 2 {
+		return 0
+	}
+	return float64(len(s.Values)-1) * s.Dt
+}
+
+// Time returns the time stamp of sample i.
+func (s *Series) Time(i int) float64 { return s.T0 + float64(i)*s.Dt }
+
+// InputError is bad input: it says what is wrong and where. Line and Column are 1-based and 0
+// when they do not apply. Commands exit with status 2 on an InputError.
+type InputError struct {
+	Path   string // file name as given ("-" for standard input)
+	Line   int
+	Column int
+	Msg    string
+}
+
+// Error formats the error as path:line:column: message, leaving out what is unknown.
+func (e *InputError) Error() string {
+	p := e.Path
+	if p == "" {
+		p = "input"
+	}
+	switch {
+	case e.Line > 0 && e.Column > 0:
+		return fmt.Sprintf("%s:%d:%d: %s", p, e.Line, e.Column, e.Msg)
+	case e.Line > 0:
+		return fmt.Sprintf("%s:%d: %s", p, e.Line, e.Msg)
+	default:
+		return fmt.Sprintf("%s: %s", p, e.Msg)
+	}
+}
+
+// ErrConstant is returned by CheckVariable for a record that is constant or nearly so; analyses
+// refuse such records (exit status 1: the analysis ran but has no answer).
+type ErrConstant struct{ Std, Scale float64 }
+
+func (e *ErrConstant) Error() string {
+	return fmt.Sprintf("the signal is constant or nearly so (standard deviation %.3g against a scale of %.3g): there is no dynamics to analyse", e.Std, e.Scale)
+}
+
+// CheckVariable returns an *ErrConstant when the record's standard deviation is zero or below
+// 1e-12 of its largest absolute value (round-off level), and nil otherwise.
+func CheckVariable(x []float64) error {
+	if len(x) == 0 {
+		return &ErrConstant{}
+	}
+	var mean, scale float64
+	for _, v := range x {
+		mean += v
+		if a := math.Abs(v); a > scale {
+			scale = a
+		}
+	}
+	mean /= float64(len(x))
+	var ss float64
+	for _, v := range x {
+		d := v - mean
+		ss += d * d
+	}
+	std := math.Sqrt(ss / float64(len(x)))
+	if std == 0 || std <= 1e-12*scale {
+		return &ErrConstant{Std: std, Scale: scale}
+	}
+	return nil
+}
