@@ -1,0 +1,291 @@
+package series
+
+import (
+	"fmt"
+	"math"
+	"slices"
+	"strconv"
+
+	"gonum.org/v1/gonum/dsp/fourier"
+)
+
+// Summary is what `unfold inspect` reports about a record: size, sampling, statistics, the
+// quantisation step, the dominant period and a stationarity hint.
+type Summary struct {
+	Samples  int     // number of samples
+	Dt       float64 // sampling interval (time units)
+	Duration float64 // (N−1)·Dt
+	Mean     float64
+	Std      float64 // population standard deviation
+	Min, Max float64
+	// Quantization is the smallest step between distinct values (an ADC's resolution, or the
+	// rounding of a written file), in signal units; 0 when all values are equal.
+	Quantization float64
+	// DominantPeriod is 1/f of the largest periodogram peak above zero frequency, in time
+	// units (0 when there is none).
+	DominantPeriod float64
+	GapsFilled     int
+	Stationarity   Stationarity
+	// Cautions are plain-words warnings for the user.
+	Cautions []string
+}
+
+// Stationarity compares the halves and quarters of a record with their sampling error.
+//
+// The sampling error of a segment mean is σ·√(τ/n) for a segment of n samples, with τ the
+// integrated autocorrelation time 1 + 2·Σρ(k) summed up to the first negative ρ(k) (common
+// practice; Sokal 1997, "Monte Carlo methods in statistical mechanics", uses a similar window).
+// A segment mean more than 4 standard errors from the whole mean, or a segment variance whose
+// log ratio to the whole variance exceeds 4·√(2τ/n), is reported as non-stationary.
+type Stationarity struct {
+	HalfMeans       []float64 `json:"half_means"`
+	HalfStds        []float64 `json:"half_stds"`
+	QuarterMeans    []float64 `json:"quarter_means"`
+	QuarterStds     []float64 `json:"quarter_stds"`
+	CorrelationTime float64   `json:"correlation_time"` // integrated autocorrelation time τ, in samples
+	MeanShift       float64   `json:"mean_shift"`       // largest |segment mean − mean| in standard errors
+	VarianceShift   float64   `json:"variance_shift"`   // largest |ln(segment var / var)| in standard errors
+	Stationary      bool      `json:"stationary"`       // no shift beyond 4 standard errors
+}
+
+// shiftLimit is the number of standard errors beyond which a segment is reported as different
+// (about a 1-in-15000 false alarm per segment for Gaussian errors; common practice).
+const shiftLimit = 4
+
+// Describe computes the Summary of s. It needs at least 8 samples.
+func Describe(s *Series) (*Summary, error) {
+	x := s.Values
+	n := len(x)
+	if n < 8 {
+		return nil, fmt.Errorf("describe: %d samples are too few (need at least 8)", n)
+	}
+	sm := &Summary{Samples: n, Dt: s.Dt, Duration: s.Duration(), GapsFilled: s.GapsFilled}
+	sm.Mean, sm.Std = meanStd(x)
+	sm.Min, sm.Max = x[0], x[0]
+	for _, v := range x {
+		sm.Min = math.Min(sm.Min, v)
+		sm.Max = math.Max(sm.Max, v)
+	}
+	sm.Quantization = quantization(x)
+	if sm.Std == 0 {
+		sm.Cautions = append(sm.Cautions, "the signal is constant: there is nothing to analyse")
+		sm.Stationarity.Stationary = true
+		return sm, nil
+	}
+	if sm.Quantization > 0 && sm.Std/sm.Quantization < 10 {
+		sm.Cautions = append(sm.Cautions, fmt.Sprintf("coarse quantisation: the standard deviation is only %.1f quantisation steps; neighbour-based estimates at small scales will see the steps", sm.Std/sm.Quantization))
+	}
+	p, nfft := dominantPeriod(x, sm.Mean)
+	if p > 0 {
+		sm.DominantPeriod = p * s.Dt
+		if p >= 0.5*float64(nfft) {
+			sm.Cautions = append(sm.Cautions, "the strongest periodogram component is as long as the record: a trend or a very slow drift dominates; try --detrend linear")
+		}
+	}
+	sm.Stationarity = stationarity(x, sm.Mean, sm.Std)
+	if !sm.Stationarity.Stationary {
+		sm.Cautions = append(sm.Cautions, fmt.Sprintf("the record looks non-stationary: segment means differ by up to %.1f and variances by up to %.1f standard errors of sampling (limit %d); a trend, a drift or a change of regime will bias every estimate — consider --detrend or a shorter --from/--to range", sm.Stationarity.MeanShift, sm.Stationarity.VarianceShift, shiftLimit))
+	}
+	return sm, nil
+}
+
+func meanStd(x []float64) (mean, std float64) {
+	for _, v := range x {
+		mean += v
+	}
+	mean /= float64(len(x))
+	var ss float64
+	for _, v := range x {
+		d := v - mean
+		ss += d * d
+	}
+	return mean, math.Sqrt(ss / float64(len(x)))
+}
+
+// quantization returns the smallest positive difference between sorted values, rounded to ten
+// significant digits so that decimal rounding in a file reads as its step (0.01, not 0.0099999).
+func quantization(x []float64) float64 {
+	v := slices.Clone(x)
+	slices.Sort(v)
+	q := math.Inf(1)
+	for i := 1; i < len(v); i++ {
+		if d := v[i] - v[i-1]; d > 0 && d < q {
+			q = d
+		}
+	}
+	if math.IsInf(q, 1) {
+		return 0
+	}
+	r, err := strconv.ParseFloat(strconv.FormatFloat(q, 'g', 10, 64), 64)
+	if err != nil {
+		return q
+	}
+	return r
+}
+
+// fftLength returns n when its largest prime factor is small enough for a fast mixed-radix
+// transform, and otherwise the next 5-smooth number above n (zero padding).
+func fftLength(n int) int {
+	m, p := n, 2
+	largest := 1
+	for p*p <= m {
+		for m%p == 0 {
+			m /= p
+			largest = p
+		}
+		p++
+	}
+	if m > 1 {
+		largest = max(largest, m)
+	}
+	if largest <= 97 {
+		return n
+	}
+	for k := n + 1; ; k++ {
+		r := k
+		for _, f := range []int{2, 3, 5} {
+			for r%f == 0 {
+				r /= f
+			}
+		}
+		if r == 1 {
+			return k
+		}
+	}
+}
+
+// dominantPeriod returns the period in samples of the largest periodogram peak above zero
+// frequency, refined by a parabola through the log power of the peak bin and its neighbours
+// (common practice), and the transform length used.
+func dominantPeriod(x []float64, mean float64) (float64, int) {
+	nfft := fftLength(len(x))
+	buf := make([]float64, nfft)
+	for i, v := range x {
+		buf[i] = v - mean
+	}
+	fft := fourier.NewFFT(nfft)
+	c := fft.Coefficients(nil, buf)
+	best, bi := 0.0, 0
+	pow := make([]float64, len(c))
+	for k := range c {
+		pow[k] = real(c[k])*real(c[k]) + imag(c[k])*imag(c[k])
+		if k > 0 && pow[k] > best {
+			best, bi = pow[k], k
+		}
+	}
+	if bi == 0 || best == 0 {
+		return 0, nfft
+	}
+	f := float64(bi)
+	if bi > 1 && bi < len(pow)-1 && pow[bi-1] > 1e-10*best && pow[bi+1] > 1e-10*best {
+		a, b, g := math.Log(pow[bi-1]), math.Log(pow[bi]), math.Log(pow[bi+1])
+		if den := a - 2*b + g; den < 0 {
+			f += 0.5 * (a - g) / den
+		}
+	}
+	return float64(nfft) / f, nfft
+}
+
+// stationarity compares halves and quarters of x with their sampling errors.
+func stationarity(x []float64, mean, std float64) Stationarity {
+	st := Stationarity{CorrelationTime: segmentCorrelationTime(x)}
+	variance := std * std
+	check := func(parts int) (means, stds []float64) {
+		n := len(x) / parts
+		for p := 0; p < parts; p++ {
+			m, s := meanStd(x[p*n : (p+1)*n])
+			means = append(means, m)
+			stds = append(stds, s)
+			neff := float64(n) / st.CorrelationTime
+			if se := std / math.Sqrt(neff); se > 0 {
+				st.MeanShift = math.Max(st.MeanShift, math.Abs(m-mean)/se)
+			}
+			if s > 0 && variance > 0 {
+				se := math.Sqrt(2 / neff)
+				st.VarianceShift = math.Max(st.VarianceShift, math.Abs(math.Log(s*s/variance))/se)
+			} else {
+				st.VarianceShift = math.Inf(1)
+			}
+		}
+		return means, stds
+	}
+	st.HalfMeans, st.HalfStds = check(2)
+	st.QuarterMeans, st.QuarterStds = check(4)
+	if math.IsInf(st.VarianceShift, 1) {
+		st.VarianceShift = math.MaxFloat64
+	}
+	st.Stationary = st.MeanShift <= shiftLimit && st.VarianceShift <= shiftLimit
+	return st
+}
+
+// segmentCorrelationTime estimates the correlation time after removing a straight line from
+// each quarter of x, so that a trend or a step between quarters — what the test looks for — does
+// not inflate the sampling error it is judged against.
+func segmentCorrelationTime(x []float64) float64 {
+	y := make([]float64, len(x))
+	q := len(x) / 4
+	for p := 0; p < 4; p++ {
+		lo, hi := p*q, (p+1)*q
+		if p == 3 {
+			hi = len(x)
+		}
+		removeLine(x[lo:hi], y[lo:hi])
+	}
+	m, s := meanStd(y)
+	if s == 0 {
+		return 1
+	}
+	return correlationTime(y, m, s)
+}
+
+// removeLine writes x minus its least-squares straight line into y.
+func removeLine(x, y []float64) {
+	n := float64(len(x))
+	var st, sx, stt, stx float64
+	for i, v := range x {
+		t := float64(i)
+		st += t
+		sx += v
+		stt += t * t
+		stx += t * v
+	}
+	den := n*stt - st*st
+	b := 0.0
+	if den != 0 {
+		b = (n*stx - st*sx) / den
+	}
+	a := (sx - b*st) / n
+	for i, v := range x {
+		y[i] = v - a - b*float64(i)
+	}
+}
+
+// correlationTime returns the integrated autocorrelation time 1 + 2·Σρ(k), summed over k ≥ 1
+// up to the first negative ρ(k), computed by FFT (zero padded, so the estimate is not circular).
+func correlationTime(x []float64, mean, std float64) float64 {
+	n := len(x)
+	nfft := fftLength(2 * n)
+	buf := make([]float64, nfft)
+	for i, v := range x {
+		buf[i] = v - mean
+	}
+	fft := fourier.NewFFT(nfft)
+	c := fft.Coefficients(nil, buf)
+	for k := range c {
+		c[k] = complex(real(c[k])*real(c[k])+imag(c[k])*imag(c[k]), 0)
+	}
+	acov := fft.Sequence(nil, c)
+	r0 := acov[0]
+	if r0 <= 0 {
+		return 1
+	}
+	tau := 1.0
+	for k := 1; k < n/4; k++ {
+		rho := acov[k] / r0
+		if rho < 0 {
+			break
+		}
+		tau += 2 * rho
+	}
+	return tau
+}
