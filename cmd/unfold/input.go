@@ -1,0 +1,43 @@
+package main
+
+import (
+	"github.com/spf13/cobra"
+
+	"unfold/series"
+)
+
+// inputOptions are the input and preprocessing flags of every command that reads a signal.
+type inputOptions struct {
+	read series.ReadOptions
+	prep series.Prep
+}
+
+// addInputFlags binds the shared input and preprocessing flags (DESIGN.md §3) to cmd.
+func addInputFlags(cmd *cobra.Command, o *inputOptions) {
+	f := cmd.Flags()
+	f.StringVar(&o.read.Column, "column", "", "signal column: a header name or a 1-based index (default: the only non-time numeric column, else the first)")
+	f.StringVar(&o.read.TimeColumn, "time-column", "", "time column: a header name or a 1-based index (default: a column named t, time, seconds, year, …)")
+	f.Float64Var(&o.read.Dt, "dt", 0, "sampling interval in time units (default: from the time column or the WAV rate, else 1)")
+	f.StringVar(&o.read.Format, "format", "", "input format: csv, npy, f32le, f64le or wav (default: detected from the name and content)")
+	f.IntVar(&o.read.Channel, "channel", 1, "WAV channel (1-based)")
+	f.StringVar(&o.read.Gaps, "gaps", "", "what to do with NaN, Inf or empty cells: drop or linear (default: refuse them)")
+	f.StringVar(&o.prep.From, "from", "", "first sample to use: an index (1000) or a time with a unit (2.5s, 10min, 3h, 2d, 1.5y, or 12t in the record's own unit)")
+	f.StringVar(&o.prep.To, "to", "", "end of the range (exclusive), in the same forms as --from")
+	f.StringVar(&o.prep.Detrend, "detrend", "none", "remove a trend before analysis: none, mean or linear")
+	f.BoolVar(&o.prep.Standardize, "standardize", false, "rescale to zero mean and unit variance")
+	f.IntVar(&o.prep.Decimate, "decimate", 1, "keep every K-th sample (Dt is multiplied by K)")
+}
+
+// loadInput reads and preprocesses the signal named by path ("-" for standard input) and
+// returns it with the "input" object of the JSON output.
+func (a *app) loadInput(path string, o *inputOptions) (*series.Series, *inputInfo, error) {
+	s, src, err := series.ReadFile(path, a.stdin, o.read)
+	if err != nil {
+		return nil, nil, err
+	}
+	s, err = o.prep.Apply(s)
+	if err != nil {
+		return nil, nil, err
+	}
+	return s, &inputInfo{Path: src.Path, SHA256: src.SHA256, Samples: s.Len(), Dt: s.Dt}, nil
+}
