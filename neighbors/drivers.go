@@ -1,0 +1,374 @@
+package neighbors
+
+import (
+	"math"
+	"runtime"
+	"sort"
+	"sync"
+	"sync/atomic"
+)
+
+// resolveThreads returns the number of goroutines to use for threads (<= 0: all cores).
+func resolveThreads(threads int) int {
+	if threads <= 0 {
+		threads = runtime.GOMAXPROCS(0)
+	}
+	return max(threads, 1)
+}
+
+// parallel runs body over [0, total) in chunks on threads goroutines, each with its own
+// Searcher. progress, when not nil, is called serially with the number of items done.
+func (ix *Index) parallel(total, chunk, threads int, progress func(done, total int), body func(s *Searcher, start, end int)) {
+	if total <= 0 {
+		return
+	}
+	threads = min(resolveThreads(threads), (total+chunk-1)/chunk)
+	var next atomic.Int64
+	var mu sync.Mutex
+	done := 0
+	work := func() {
+		s := ix.NewSearcher()
+		for {
+			start := int(next.Add(1)-1) * chunk
+			if start >= total {
+				return
+			}
+			end := min(start+chunk, total)
+			body(s, start, end)
+			if progress != nil {
+				mu.Lock()
+				done += end - start
+				progress(done, total)
+				mu.Unlock()
+			}
+		}
+	}
+	if threads == 1 {
+		work()
+		return
+	}
+	var wg sync.WaitGroup
+	for range threads {
+		wg.Go(work)
+	}
+	wg.Wait()
+}
+
+// chunkFor returns a chunk size for n point queries.
+func chunkFor(n int) int { return min(max(n/256, 64), 2048) }
+
+// ForEach runs fn(s, i) once for every point i in [0, Len()) on threads goroutines (<= 0: all
+// cores); s is the calling goroutine's own Searcher. The points are visited in chunks in tree
+// order (neighbouring points together, for cache locality), not in index order; results that
+// fn writes by index are deterministic for any thread count. progress may be nil.
+func (ix *Index) ForEach(threads int, progress func(done, total int), fn func(s *Searcher, i int)) {
+	ix.parallel(ix.n, chunkFor(ix.n), threads, progress, func(s *Searcher, start, end int) {
+		for p := start; p < end; p++ {
+			fn(s, int(ix.perm[p]))
+		}
+	})
+}
+
+// AllKNN finds the k nearest neighbours of every point i with Theiler window theiler, among the
+// candidates j with lo <= j < hi (hi == 0 means Len()), on threads goroutines (<= 0: all cores).
+// It returns flat n×k arrays: row i (idx[i*k : (i+1)*k]) holds the neighbours of point i sorted
+// by (distance, index); missing entries have index −1 and distance +Inf. The result is identical
+// for any thread count. progress may be nil.
+func (ix *Index) AllKNN(k int, theiler int, lo, hi int, threads int, progress func(done, total int)) (idx []int32, dist []float64) {
+	if k <= 0 {
+		return []int32{}, []float64{}
+	}
+	n := ix.n
+	idx = make([]int32, n*k)
+	dist = make([]float64, n*k)
+	dim := ix.dim
+	ix.parallel(n, chunkFor(n), threads, progress, func(s *Searcher, start, end int) {
+		var buf []Neighbor
+		for p := start; p < end; p++ {
+			i := int(ix.perm[p])
+			buf = s.KNN(ix.pts[p*dim:p*dim+dim], k, Query{Self: i, Theiler: theiler, Lo: lo, Hi: hi}, buf)
+			ri, rd := idx[i*k:i*k+k], dist[i*k:i*k+k]
+			for c := range ri {
+				if c < len(buf) {
+					ri[c], rd[c] = int32(buf[c].Index), buf[c].Dist
+				} else {
+					ri[c], rd[c] = -1, math.Inf(1)
+				}
+			}
+		}
+	})
+	return idx, dist
+}
+
+// PairCounts returns, for every radius radii[k], the number of unordered pairs of points i < j
+// with j − i > theiler whose distance is <= radii[k]: the pair counts of the correlation sum of
+// Grassberger & Procaccia (1983) with Theiler's (1986) window. The counts are exact integers.
+// The radii should be ascending (any order is accepted; counts are returned in the order
+// given); negative or NaN radii count nothing.
+//
+// All pairs are counted in one dual-tree traversal over the radii at once, in which two nodes
+// whose boxes are separated by distances falling between the same consecutive radii are counted
+// as a whole without visiting their points (Gray & Moore 2001); the pairs inside the window are
+// then counted directly and subtracted. Work runs on threads goroutines (<= 0: all cores);
+// progress may be nil.
+func (ix *Index) PairCounts(radii []float64, theiler int, threads int, progress func(done, total int)) []int64 {
+	out := make([]int64, len(radii))
+	n := ix.n
+	if n < 2 || len(radii) == 0 {
+		return out
+	}
+	// Sorted thresholds in key units; bin b of a key is the first sorted threshold >= key.
+	order := make([]int, len(radii))
+	for i := range order {
+		order[i] = i
+	}
+	th := make([]float64, len(radii))
+	for i, r := range radii {
+		th[i] = ix.threshold(r)
+	}
+	sort.SliceStable(order, func(a, b int) bool { return th[order[a]] < th[order[b]] })
+	ts := make([]float64, len(radii))
+	for i, o := range order {
+		ts[i] = th[o]
+	}
+	pc := pairCounter{ix: ix, ts: ts, tmax: ts[len(ts)-1]}
+	if pc.tmax < 0 {
+		return out
+	}
+
+	// Plan: the top of the traversal runs here and emits tasks of bounded size.
+	top := make([]int64, len(ts)+1)
+	var tasks []pairTask
+	cutoff := max(4*leafSize, n/512)
+	pc.plan(0, -1, cutoff, top, &tasks)
+
+	w := max(theiler, 0)
+	w = min(w, n-1)
+	nw := 0
+	if w > 0 {
+		nw = (n + 1023) / 1024
+	}
+	total := len(tasks) + nw
+	threads = resolveThreads(threads)
+	hists := make([][]int64, threads)
+	for t := range hists {
+		hists[t] = make([]int64, len(ts)+1)
+	}
+	var next atomic.Int64
+	var mu sync.Mutex
+	done := 0
+	tick := func() {
+		if progress != nil {
+			mu.Lock()
+			done++
+			progress(done, total)
+			mu.Unlock()
+		}
+	}
+	work := func(h []int64) {
+		for {
+			t := int(next.Add(1) - 1)
+			if t >= total {
+				return
+			}
+			if t < len(tasks) {
+				tk := tasks[t]
+				if tk.b < 0 {
+					pc.self(tk.a, h)
+				} else {
+					pc.cross(tk.a, tk.b, h)
+				}
+			} else {
+				// Pairs inside the window, subtracted: (i, i+l), 1 <= l <= w.
+				start := (t - len(tasks)) * 1024
+				end := min(start+1024, n)
+				for i := start; i < end; i++ {
+					a := ix.Coords(i)
+					for j := i + 1; j <= min(i+w, n-1); j++ {
+						if b := pc.bin(ix.key(a, ix.Coords(j)), 0); b < len(ts) {
+							h[b]--
+						}
+					}
+				}
+			}
+			tick()
+		}
+	}
+	if threads == 1 {
+		work(hists[0])
+	} else {
+		var wg sync.WaitGroup
+		for t := range threads {
+			h := hists[t]
+			wg.Go(func() { work(h) })
+		}
+		wg.Wait()
+	}
+	for _, h := range hists {
+		for b := range top {
+			top[b] += h[b]
+		}
+	}
+	var cum int64
+	for i, o := range order {
+		cum += top[i]
+		out[o] = cum
+	}
+	return out
+}
+
+// pairTask is a unit of PairCounts work: the pairs within node a (b < 0) or between a and b.
+type pairTask struct{ a, b int32 }
+
+// pairCounter holds the sorted thresholds of one PairCounts call.
+type pairCounter struct {
+	ix   *Index
+	ts   []float64
+	tmax float64
+}
+
+// bin returns the first threshold index >= from whose value is >= key (len(ts) if none).
+func (pc *pairCounter) bin(key float64, from int) int {
+	b := from
+	for b < len(pc.ts) && pc.ts[b] < key {
+		b++
+	}
+	return b
+}
+
+func (pc *pairCounter) size(id int32) int64 {
+	nd := &pc.ix.nodes[id]
+	return int64(nd.end - nd.start)
+}
+
+// boxKeys returns the smallest and largest keys between any point of box a and any of box b.
+func (pc *pairCounter) boxKeys(a, b int32) (lo, hi float64) {
+	dim := pc.ix.dim
+	ba := pc.ix.box[int(a)*2*dim : int(a)*2*dim+2*dim]
+	bb := pc.ix.box[int(b)*2*dim : int(b)*2*dim+2*dim]
+	if pc.ix.norm == Euclidean {
+		for d := range dim {
+			g := max(0, bb[d]-ba[dim+d], ba[d]-bb[dim+d])
+			f := max(ba[dim+d]-bb[d], bb[dim+d]-ba[d])
+			lo += float64(g * g)
+			hi += float64(f * f)
+		}
+		return lo, hi
+	}
+	for d := range dim {
+		lo = max(lo, bb[d]-ba[dim+d], ba[d]-bb[dim+d])
+		hi = max(hi, ba[dim+d]-bb[d], bb[dim+d]-ba[d])
+	}
+	return lo, hi
+}
+
+// plan runs the traversal of self(a) (b < 0) or cross(a, b) down to nodes of at most cutoff
+// points, resolving whole node pairs into h and appending the rest to tasks.
+func (pc *pairCounter) plan(a, b int32, cutoff int, h []int64, tasks *[]pairTask) {
+	nodes := pc.ix.nodes
+	if b < 0 {
+		na := &nodes[a]
+		if pc.size(a) <= int64(cutoff) || na.left < 0 {
+			*tasks = append(*tasks, pairTask{a, -1})
+			return
+		}
+		_, hi := pc.boxKeys(a, a)
+		if k := pc.bin(hi, 0); k == pc.bin(0, 0) {
+			if k < len(pc.ts) {
+				s := pc.size(a)
+				h[k] += s * (s - 1) / 2
+			}
+			return
+		}
+		pc.plan(na.left, -1, cutoff, h, tasks)
+		pc.plan(na.right, -1, cutoff, h, tasks)
+		pc.plan(na.left, na.right, cutoff, h, tasks)
+		return
+	}
+	lo, hi := pc.boxKeys(a, b)
+	kl := pc.bin(lo, 0)
+	if kl == len(pc.ts) {
+		return
+	}
+	if kh := pc.bin(hi, kl); kh == kl {
+		h[kl] += pc.size(a) * pc.size(b)
+		return
+	}
+	sa, sb := pc.size(a), pc.size(b)
+	if sa <= int64(cutoff) && sb <= int64(cutoff) {
+		*tasks = append(*tasks, pairTask{a, b})
+		return
+	}
+	na, nb := &nodes[a], &nodes[b]
+	if nb.left >= 0 && (sb > sa || na.left < 0) {
+		pc.plan(a, nb.left, cutoff, h, tasks)
+		pc.plan(a, nb.right, cutoff, h, tasks)
+		return
+	}
+	pc.plan(na.left, b, cutoff, h, tasks)
+	pc.plan(na.right, b, cutoff, h, tasks)
+}
+
+// self counts the pairs within node a into h.
+func (pc *pairCounter) self(a int32, h []int64) {
+	ix := pc.ix
+	na := &ix.nodes[a]
+	if na.left < 0 {
+		dim := ix.dim
+		for p := int(na.start); p < int(na.end); p++ {
+			x := ix.pts[p*dim : p*dim+dim]
+			for q := p + 1; q < int(na.end); q++ {
+				if k := pc.bin(ix.key(x, ix.pts[q*dim:q*dim+dim]), 0); k < len(pc.ts) {
+					h[k]++
+				}
+			}
+		}
+		return
+	}
+	_, hi := pc.boxKeys(a, a)
+	if k := pc.bin(hi, 0); k == pc.bin(0, 0) {
+		if k < len(pc.ts) {
+			s := pc.size(a)
+			h[k] += s * (s - 1) / 2
+		}
+		return
+	}
+	pc.self(na.left, h)
+	pc.self(na.right, h)
+	pc.cross(na.left, na.right, h)
+}
+
+// cross counts the pairs between nodes a and b into h.
+func (pc *pairCounter) cross(a, b int32, h []int64) {
+	ix := pc.ix
+	lo, hi := pc.boxKeys(a, b)
+	kl := pc.bin(lo, 0)
+	if kl == len(pc.ts) {
+		return
+	}
+	if kh := pc.bin(hi, kl); kh == kl {
+		h[kl] += pc.size(a) * pc.size(b)
+		return
+	}
+	na, nb := &ix.nodes[a], &ix.nodes[b]
+	if na.left < 0 && nb.left < 0 {
+		dim := ix.dim
+		for p := int(na.start); p < int(na.end); p++ {
+			x := ix.pts[p*dim : p*dim+dim]
+			for q := int(nb.start); q < int(nb.end); q++ {
+				if k := pc.bin(ix.key(x, ix.pts[q*dim:q*dim+dim]), kl); k < len(pc.ts) {
+					h[k]++
+				}
+			}
+		}
+		return
+	}
+	sa, sb := na.end-na.start, nb.end-nb.start
+	if nb.left >= 0 && (sb > sa || na.left < 0) {
+		pc.cross(a, nb.left, h)
+		pc.cross(a, nb.right, h)
+		return
+	}
+	pc.cross(na.left, b, h)
+	pc.cross(na.right, b, h)
+}

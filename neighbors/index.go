@@ -1,0 +1,323 @@
+package neighbors
+
+import (
+	"errors"
+	"fmt"
+	"math"
+)
+
+// Norm selects the distance between two points.
+type Norm int
+
+const (
+	// Euclidean is the ℓ2 norm, sqrt(Σ (a_d − b_d)²).
+	Euclidean Norm = iota
+	// Max is the maximum (Chebyshev, ℓ∞) norm, max_d |a_d − b_d|.
+	Max
+)
+
+// String returns "euclidean" or "max".
+func (n Norm) String() string {
+	switch n {
+	case Euclidean:
+		return "euclidean"
+	case Max:
+		return "max"
+	}
+	return fmt.Sprintf("Norm(%d)", int(n))
+}
+
+// Neighbor is one result of a search: the point's index in the caller's numbering and its true
+// (not squared) distance from the query point.
+type Neighbor struct {
+	Index int
+	Dist  float64
+}
+
+// leafSize is the largest number of points in a leaf bucket.
+const leafSize = 16
+
+// node is one kd-tree node. Points of the subtree occupy tree positions [start, end).
+type node struct {
+	start, end     int32
+	left, right    int32 // child node ids; left < 0 for a leaf
+	split          int32 // split dimension
+	minIdx, maxIdx int32 // smallest and largest original index in the subtree
+	lmax, rmin     float64 // largest coordinate of the left child and smallest of the right child in the split dimension
+}
+
+// Index is an immutable kd-tree over n points of dimension dim. It is safe for concurrent use
+// by many Searchers.
+type Index struct {
+	n, dim int
+	norm   Norm
+	pts    []float64 // n×dim, tree order
+	perm   []int32   // tree position → original index
+	inv    []int32   // original index → tree position
+	nodes  []node
+	box    []float64 // per node 2·dim values: lower corner then upper corner
+}
+
+// ErrInput is wrapped by every error about unusable input points or parameters.
+var ErrInput = errors.New("neighbors: bad input")
+
+// Build returns an index over n = len(points)/dim points stored row-major (point i is
+// points[i*dim : (i+1)*dim]). The points are copied; NaN or infinite coordinates are rejected.
+// n = 0 gives an empty index on which every query returns nothing.
+func Build(points []float64, dim int, norm Norm) (*Index, error) {
+	if dim < 1 {
+		return nil, fmt.Errorf("%w: dimension %d, want >= 1", ErrInput, dim)
+	}
+	if len(points)%dim != 0 {
+		return nil, fmt.Errorf("%w: %d coordinates is not a multiple of dimension %d", ErrInput, len(points), dim)
+	}
+	n := len(points) / dim
+	for i, v := range points {
+		if math.IsNaN(v) || math.IsInf(v, 0) {
+			return nil, fmt.Errorf("%w: point %d, coordinate %d is %v", ErrInput, i/dim, i%dim, v)
+		}
+	}
+	return build(points, n, dim, dim, 1, norm)
+}
+
+// FromEmbedding returns an index over the delay vectors v_i = (x[i], x[i+lag], …,
+// x[i+(dim−1)lag]) for i = 0 … N−(dim−1)lag−1, N = len(x). The vectors are copied once, in tree
+// order. NaN or infinite samples among those used are rejected.
+func FromEmbedding(x []float64, lag, dim int, norm Norm) (*Index, error) {
+	if lag < 1 {
+		return nil, fmt.Errorf("%w: lag %d, want >= 1", ErrInput, lag)
+	}
+	if dim < 1 {
+		return nil, fmt.Errorf("%w: dimension %d, want >= 1", ErrInput, dim)
+	}
+	n := len(x) - (dim-1)*lag
+	if n < 1 {
+		return nil, fmt.Errorf("%w: %d samples give no delay vector with lag %d and dimension %d", ErrInput, len(x), lag, dim)
+	}
+	for i, v := range x {
+		if math.IsNaN(v) || math.IsInf(v, 0) {
+			return nil, fmt.Errorf("%w: sample %d is %v", ErrInput, i, v)
+		}
+	}
+	return build(x, n, dim, 1, lag, norm)
+}
+
+// build constructs the tree over n points whose coordinate d of point i is
+// src[i*rowStride + d*colStride].
+func build(src []float64, n, dim, rowStride, colStride int, norm Norm) (*Index, error) {
+	if norm != Euclidean && norm != Max {
+		return nil, fmt.Errorf("%w: unknown norm %d", ErrInput, int(norm))
+	}
+	if n > math.MaxInt32-1 {
+		return nil, fmt.Errorf("%w: %d points exceed the limit of %d", ErrInput, n, math.MaxInt32-1)
+	}
+	ix := &Index{n: n, dim: dim, norm: norm}
+	ix.perm = make([]int32, n)
+	for i := range ix.perm {
+		ix.perm[i] = int32(i)
+	}
+	if n > 0 {
+		est := 2*(n/leafSize) + 1
+		ix.nodes = make([]node, 0, est)
+		ix.box = make([]float64, 0, est*2*dim)
+		b := builder{ix: ix, src: src, rs: rowStride, cs: colStride}
+		b.node(0, n)
+	}
+	ix.pts = make([]float64, n*dim)
+	ix.inv = make([]int32, n)
+	for p, i := range ix.perm {
+		row := ix.pts[p*dim : p*dim+dim]
+		base := int(i) * rowStride
+		for d := range row {
+			row[d] = src[base+d*colStride]
+		}
+		ix.inv[i] = int32(p)
+	}
+	return ix, nil
+}
+
+type builder struct {
+	ix     *Index
+	src    []float64
+	rs, cs int
+}
+
+func (b *builder) at(i int32, d int) float64 { return b.src[int(i)*b.rs+d*b.cs] }
+
+// node builds the subtree over tree positions [start, end) and returns its id.
+func (b *builder) node(start, end int) int32 {
+	ix := b.ix
+	dim := ix.dim
+	id := int32(len(ix.nodes))
+	ix.nodes = append(ix.nodes, node{start: int32(start), end: int32(end), left: -1, right: -1})
+	off := len(ix.box)
+	for range 2 * dim {
+		ix.box = append(ix.box, 0)
+	}
+	if end-start <= leafSize {
+		lo := ix.box[off : off+dim]
+		hi := ix.box[off+dim : off+2*dim]
+		mn, mx := int32(math.MaxInt32), int32(-1)
+		for d := range dim {
+			lo[d], hi[d] = math.Inf(1), math.Inf(-1)
+		}
+		for _, i := range ix.perm[start:end] {
+			mn, mx = min(mn, i), max(mx, i)
+			for d := range dim {
+				v := b.at(i, d)
+				lo[d] = min(lo[d], v)
+				hi[d] = max(hi[d], v)
+			}
+		}
+		ix.nodes[id].minIdx, ix.nodes[id].maxIdx = mn, mx
+		return id
+	}
+	// Widest dimension of the points (computed directly, since the box is filled from the children).
+	split, width := 0, -1.0
+	for d := range dim {
+		lo, hi := math.Inf(1), math.Inf(-1)
+		for _, i := range ix.perm[start:end] {
+			v := b.at(i, d)
+			lo = min(lo, v)
+			hi = max(hi, v)
+		}
+		if hi-lo > width {
+			split, width = d, hi-lo
+		}
+	}
+	mid := start + (end-start)/2
+	b.selectNth(ix.perm[start:end], split, mid-start)
+	l := b.node(start, mid)
+	r := b.node(mid, end)
+	nd := &ix.nodes[id]
+	nd.left, nd.right, nd.split = l, r, int32(split)
+	ln, rn := &ix.nodes[l], &ix.nodes[r]
+	nd.minIdx, nd.maxIdx = min(ln.minIdx, rn.minIdx), max(ln.maxIdx, rn.maxIdx)
+	lb := ix.box[int(l)*2*dim : int(l)*2*dim+2*dim]
+	rb := ix.box[int(r)*2*dim : int(r)*2*dim+2*dim]
+	box := ix.box[off : off+2*dim]
+	for d := range dim {
+		box[d] = min(lb[d], rb[d])
+		box[dim+d] = max(lb[dim+d], rb[dim+d])
+	}
+	nd.lmax = lb[dim+split]
+	nd.rmin = rb[split]
+	return id
+}
+
+// selectNth reorders perm so that perm[k] holds the point of rank k in coordinate d, with no
+// larger coordinate before it and no smaller one after it (Hoare's selection; duplicates split
+// evenly).
+func (b *builder) selectNth(perm []int32, d, k int) {
+	lo, hi := 0, len(perm)-1
+	for hi > lo {
+		m := lo + (hi-lo)/2
+		x, y, z := b.at(perm[lo], d), b.at(perm[m], d), b.at(perm[hi], d)
+		pivot := max(min(x, y), min(max(x, y), z))
+		i, j := lo, hi
+		for i <= j {
+			for b.at(perm[i], d) < pivot {
+				i++
+			}
+			for b.at(perm[j], d) > pivot {
+				j--
+			}
+			if i <= j {
+				perm[i], perm[j] = perm[j], perm[i]
+				i++
+				j--
+			}
+		}
+		switch {
+		case k <= j:
+			hi = j
+		case k >= i:
+			lo = i
+		default:
+			return
+		}
+	}
+}
+
+// Len returns the number of points.
+func (ix *Index) Len() int { return ix.n }
+
+// Dim returns the dimension of the points.
+func (ix *Index) Dim() int { return ix.dim }
+
+// Norm returns the norm the index measures distances with.
+func (ix *Index) Norm() Norm { return ix.norm }
+
+// Point appends the coordinates of point i (original numbering) to dst[:0] and returns it.
+func (ix *Index) Point(i int, dst []float64) []float64 {
+	return append(dst[:0], ix.Coords(i)...)
+}
+
+// Coords returns the coordinates of point i (original numbering) as a view into the index's
+// storage, without copying. The caller must not modify it.
+func (ix *Index) Coords(i int) []float64 {
+	p := int(ix.inv[i]) * ix.dim
+	return ix.pts[p : p+ix.dim : p+ix.dim]
+}
+
+// Distance returns the distance between points i and j (original numbering), computed exactly
+// as the searches compute it.
+func (ix *Index) Distance(i, j int) float64 {
+	k := ix.key(ix.Coords(i), ix.Coords(j))
+	if ix.norm == Euclidean {
+		return math.Sqrt(k)
+	}
+	return k
+}
+
+// key is the comparison key of the distance between a and b: the squared distance for the
+// Euclidean norm, the distance itself for the maximum norm. Every search computes point
+// distances with this summation order so that results agree bit for bit.
+func (ix *Index) key(a, b []float64) float64 {
+	var s float64
+	b = b[:len(a)]
+	if ix.norm == Euclidean {
+		for d, v := range a {
+			t := v - b[d]
+			s += float64(t * t)
+		}
+		return s
+	}
+	for d, v := range a {
+		s = max(s, math.Abs(v-b[d]))
+	}
+	return s
+}
+
+// threshold returns the largest key t such that a point with key k has distance <= r exactly
+// when k <= t. It returns -1 when no distance qualifies (r negative or NaN).
+func (ix *Index) threshold(r float64) float64 {
+	if !(r >= 0) {
+		return -1
+	}
+	if ix.norm == Max || math.IsInf(r, 1) {
+		if ix.norm == Euclidean {
+			return math.Inf(1)
+		}
+		return r
+	}
+	t := r * r
+	for t > 0 && math.Sqrt(t) > r {
+		t = math.Nextafter(t, math.Inf(-1))
+	}
+	for {
+		u := math.Nextafter(t, math.Inf(1))
+		if math.IsInf(u, 1) || math.Sqrt(u) > r {
+			return t
+		}
+		t = u
+	}
+}
+
+// dist converts a comparison key back to a distance.
+func (ix *Index) dist(key float64) float64 {
+	if ix.norm == Euclidean {
+		return math.Sqrt(key)
+	}
+	return key
+}

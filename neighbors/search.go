@@ -1,0 +1,329 @@
+package neighbors
+
+import (
+	"cmp"
+	"math"
+	"slices"
+)
+
+// Query restricts the candidates j of a search (original numbering).
+//
+// Self is the index of the query point when it belongs to the index; candidates with
+// |Self − j| <= Theiler are excluded (Theiler 0 excludes only j == Self; a negative Theiler is
+// treated as 0). Self < 0 means the query point is not in the index and nothing is excluded by
+// the window. Only candidates with Lo <= j < Hi are considered; Hi == 0 means Len(), Lo < 0 is
+// treated as 0 and Hi > Len() as Len().
+type Query struct {
+	Self, Theiler, Lo, Hi int
+}
+
+// cand is a candidate neighbour: comparison key (see Index.key) and original index.
+type cand struct {
+	key float64
+	idx int32
+}
+
+func cmpCand(a, b cand) int {
+	if c := cmp.Compare(a.key, b.key); c != 0 {
+		return c
+	}
+	return cmp.Compare(a.idx, b.idx)
+}
+
+// A Searcher runs queries against one Index. It holds the scratch space of one goroutine, so
+// that queries allocate nothing once dst buffers have grown; use one Searcher per goroutine.
+type Searcher struct {
+	ix  *Index
+	q   []float64
+	off []float64 // per-dimension lower bound of |q_d − p_d| over the current subtree
+
+	// candidate filter: j is admissible when lo <= j < hi and not wlo <= j <= whi
+	lo, hi   int
+	wlo, whi int
+
+	// k nearest neighbours: best is sorted by (key, idx) and holds at most k entries
+	k         int
+	best      []cand
+	worstKey  float64
+	worstIdx  int
+	thresh    float64 // radius threshold (key units)
+	cands     []cand
+	count     int
+	countOnly bool
+}
+
+// NewSearcher returns a Searcher over ix.
+func (ix *Index) NewSearcher() *Searcher {
+	return &Searcher{ix: ix, off: make([]float64, ix.dim)}
+}
+
+// Index returns the index the Searcher searches.
+func (s *Searcher) Index() *Index { return s.ix }
+
+// setup prepares the filter and the root offsets; it reports false when no candidate can exist.
+func (s *Searcher) setup(q []float64, opt Query) bool {
+	ix := s.ix
+	if ix.n == 0 {
+		return false
+	}
+	if len(q) < ix.dim {
+		panic("neighbors: query point has fewer coordinates than the index dimension")
+	}
+	s.q = q[:ix.dim]
+	s.lo, s.hi = max(opt.Lo, 0), opt.Hi
+	if s.hi == 0 || s.hi > ix.n {
+		s.hi = ix.n
+	}
+	if s.lo >= s.hi {
+		return false
+	}
+	if opt.Self >= 0 {
+		w := max(opt.Theiler, 0)
+		s.wlo, s.whi = opt.Self-w, opt.Self+w
+	} else {
+		s.wlo, s.whi = math.MinInt, math.MinInt
+	}
+	return true
+}
+
+// admissible reports whether original index j passes the filter.
+func (s *Searcher) admissible(j int) bool {
+	return j >= s.lo && j < s.hi && (j < s.wlo || j > s.whi)
+}
+
+// excludedNode reports whether every point of nd fails the filter.
+func (s *Searcher) excludedNode(nd *node) bool {
+	mn, mx := int(nd.minIdx), int(nd.maxIdx)
+	return mx < s.lo || mn >= s.hi || (mn >= s.wlo && mx <= s.whi)
+}
+
+// clearNode reports whether every point of nd passes the filter.
+func (s *Searcher) clearNode(nd *node) bool {
+	mn, mx := int(nd.minIdx), int(nd.maxIdx)
+	return mn >= s.lo && mx < s.hi && (mx < s.wlo || mn > s.whi)
+}
+
+// rootOffsets fills s.off with the distances from q to the root box per dimension and returns
+// the resulting lower bound (key units).
+func (s *Searcher) rootOffsets() float64 {
+	dim := s.ix.dim
+	lo := s.ix.box[:dim]
+	hi := s.ix.box[dim : 2*dim]
+	for d, v := range s.q {
+		s.off[d] = max(0, lo[d]-v, v-hi[d])
+	}
+	return s.bound()
+}
+
+// bound returns the lower bound implied by s.off, with the operations of Index.key.
+func (s *Searcher) bound() float64 {
+	var b float64
+	if s.ix.norm == Euclidean {
+		for _, t := range s.off {
+			b += float64(t * t)
+		}
+		return b
+	}
+	for _, t := range s.off {
+		b = max(b, t)
+	}
+	return b
+}
+
+// KNN appends to dst[:0] the k nearest admissible neighbours of q, sorted by (Dist, Index), and
+// returns it. Fewer than k are returned when there are not enough candidates.
+func (s *Searcher) KNN(q []float64, k int, opt Query, dst []Neighbor) []Neighbor {
+	dst = dst[:0]
+	if k <= 0 || !s.setup(q, opt) {
+		return dst
+	}
+	s.k = k
+	s.best = s.best[:0]
+	s.worstKey, s.worstIdx = math.Inf(1), math.MaxInt
+	rd := s.rootOffsets()
+	s.knn(0, rd)
+	for _, c := range s.best {
+		dst = append(dst, Neighbor{Index: int(c.idx), Dist: s.ix.dist(c.key)})
+	}
+	return dst
+}
+
+// pruneKNN reports whether a subtree with lower bound rd cannot improve the current k best.
+func (s *Searcher) pruneKNN(nd *node, rd float64) bool {
+	return rd > s.worstKey || (rd == s.worstKey && int(nd.minIdx) > s.worstIdx) || s.excludedNode(nd)
+}
+
+func (s *Searcher) knn(id int32, rd float64) {
+	ix := s.ix
+	nd := &ix.nodes[id]
+	if nd.left < 0 {
+		s.leafKNN(nd)
+		return
+	}
+	d := nd.split
+	qd := s.q[d]
+	old := s.off[d]
+	offL := max(old, qd-nd.lmax)
+	offR := max(old, nd.rmin-qd)
+	first, second := nd.left, nd.right
+	offF, offS := offL, offR
+	if offR < offL || (offR == offL && qd-nd.lmax > nd.rmin-qd) {
+		first, second = second, first
+		offF, offS = offS, offF
+	}
+	s.visitKNN(first, d, old, offF, rd)
+	s.visitKNN(second, d, old, offS, rd)
+}
+
+// visitKNN descends into child id whose offset in dimension d is off (parent offset old and
+// parent bound rd).
+func (s *Searcher) visitKNN(id int32, d int32, old, off, rd float64) {
+	nd := &s.ix.nodes[id]
+	if off != old {
+		s.off[d] = off
+		rd = s.bound()
+	}
+	if !s.pruneKNN(nd, rd) {
+		s.knn(id, rd)
+	}
+	s.off[d] = old
+}
+
+func (s *Searcher) leafKNN(nd *node) {
+	ix := s.ix
+	dim := ix.dim
+	q := s.q
+	for p := int(nd.start); p < int(nd.end); p++ {
+		j := int(ix.perm[p])
+		if !s.admissible(j) {
+			continue
+		}
+		key := ix.key(q, ix.pts[p*dim:p*dim+dim])
+		if key > s.worstKey || (key == s.worstKey && j > s.worstIdx) {
+			continue
+		}
+		s.insert(cand{key, int32(j)})
+	}
+}
+
+// insert puts c into the sorted best list, dropping the worst entry when it is full.
+func (s *Searcher) insert(c cand) {
+	b := s.best
+	if len(b) < s.k {
+		b = append(b, c)
+	} else {
+		b[len(b)-1] = c
+	}
+	for i := len(b) - 1; i > 0 && cmpCand(b[i], b[i-1]) < 0; i-- {
+		b[i], b[i-1] = b[i-1], b[i]
+	}
+	s.best = b
+	if len(b) == s.k {
+		s.worstKey, s.worstIdx = b[len(b)-1].key, int(b[len(b)-1].idx)
+	}
+}
+
+// Radius appends to dst[:0] every admissible neighbour of q with Dist <= r, sorted by
+// (Dist, Index), and returns it.
+func (s *Searcher) Radius(q []float64, r float64, opt Query, dst []Neighbor) []Neighbor {
+	dst = dst[:0]
+	t := s.ix.threshold(r)
+	if t < 0 || !s.setup(q, opt) {
+		return dst
+	}
+	s.thresh = t
+	s.cands = s.cands[:0]
+	s.countOnly = false
+	rd := s.rootOffsets()
+	if rd <= t {
+		s.radius(0, rd)
+	}
+	slices.SortFunc(s.cands, cmpCand)
+	for _, c := range s.cands {
+		dst = append(dst, Neighbor{Index: int(c.idx), Dist: s.ix.dist(c.key)})
+	}
+	return dst
+}
+
+// Count returns the number of admissible neighbours of q with Dist <= r. Subtrees whose box lies
+// within r and whose points are all admissible are counted without visiting their points.
+func (s *Searcher) Count(q []float64, r float64, opt Query) int {
+	t := s.ix.threshold(r)
+	if t < 0 || !s.setup(q, opt) {
+		return 0
+	}
+	s.thresh = t
+	s.count = 0
+	s.countOnly = true
+	rd := s.rootOffsets()
+	if rd <= t {
+		s.radius(0, rd)
+	}
+	return s.count
+}
+
+// farKey returns the largest key from q to any point of node id's box.
+func (s *Searcher) farKey(id int32) float64 {
+	dim := s.ix.dim
+	b := s.ix.box[int(id)*2*dim : int(id)*2*dim+2*dim]
+	var f float64
+	if s.ix.norm == Euclidean {
+		for d, v := range s.q {
+			t := max(v-b[d], b[dim+d]-v)
+			f += float64(t * t)
+		}
+		return f
+	}
+	for d, v := range s.q {
+		f = max(f, v-b[d], b[dim+d]-v)
+	}
+	return f
+}
+
+func (s *Searcher) radius(id int32, rd float64) {
+	ix := s.ix
+	nd := &ix.nodes[id]
+	if s.excludedNode(nd) {
+		return
+	}
+	if s.countOnly && s.clearNode(nd) && s.farKey(id) <= s.thresh {
+		s.count += int(nd.end - nd.start)
+		return
+	}
+	if nd.left < 0 {
+		dim := ix.dim
+		for p := int(nd.start); p < int(nd.end); p++ {
+			j := int(ix.perm[p])
+			if !s.admissible(j) {
+				continue
+			}
+			key := ix.key(s.q, ix.pts[p*dim:p*dim+dim])
+			if key <= s.thresh {
+				if s.countOnly {
+					s.count++
+				} else {
+					s.cands = append(s.cands, cand{key, int32(j)})
+				}
+			}
+		}
+		return
+	}
+	d := nd.split
+	qd := s.q[d]
+	old := s.off[d]
+	for side := 0; side < 2; side++ {
+		child, off := nd.left, max(old, qd-nd.lmax)
+		if side == 1 {
+			child, off = nd.right, max(old, nd.rmin-qd)
+		}
+		crd := rd
+		if off != old {
+			s.off[d] = off
+			crd = s.bound()
+		}
+		if crd <= s.thresh {
+			s.radius(child, crd)
+		}
+		s.off[d] = old
+	}
+}
