@@ -40,9 +40,9 @@ const leafSize = 16
 // node is one kd-tree node. Points of the subtree occupy tree positions [start, end).
 type node struct {
 	start, end     int32
-	left, right    int32 // child node ids; left < 0 for a leaf
-	split          int32 // split dimension
-	minIdx, maxIdx int32 // smallest and largest original index in the subtree
+	left, right    int32   // child node ids; left < 0 for a leaf
+	split          int32   // split dimension
+	minIdx, maxIdx int32   // smallest and largest original index in the subtree
 	lmax, rmin     float64 // largest coordinate of the left child and smallest of the right child in the split dimension
 }
 

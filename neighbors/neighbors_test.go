@@ -2,10 +2,10 @@ package neighbors
 
 import (
 	"errors"
-	"strings"
 	"math"
 	"math/rand/v2"
 	"slices"
+	"strings"
 	"testing"
 )
 
