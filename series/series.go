@@ -24,6 +24,10 @@ type Series struct {
 	Unit string
 	// TimeName is the name of the time column the sampling came from ("" when none).
 	TimeName string
+	// TimeUnit is the unit of Dt and T0 when the source states it: "s", "ms", "min", "h", "d"
+	// or "y" (from a time column's name such as "time (s)" or "year", or "s" for WAV); "" when
+	// unknown. Prep uses it to convert times given with a unit suffix.
+	TimeUnit string
 	// GapsFilled counts NaN/Inf/empty cells that were dropped or interpolated on reading.
 	GapsFilled int
 }
