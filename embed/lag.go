@@ -36,6 +36,9 @@ type LagOptions struct {
 	// MI says how the mutual information is estimated.
 	MI MIOptions
 	// Z is the significance of a minimum in standard errors; 0 means 3.
+	//
+	// With the KSG estimator a zero MI.Theiler is replaced by the 1/e decay time of the
+	// autocorrelation (at least 1); a negative MI.Theiler excludes only the point itself.
 	Z float64
 }
 
@@ -79,8 +82,8 @@ func DefaultMaxLag(n int, a *Autocorrelation) int {
 //
 //  1. MethodBiasLevel — I(1) − bias ≤ Z·null error: lag 1;
 //  2. MethodFirstMinimum — the first local minimum k (I(k) < I(k−1), I(k) ≤ I(k+1)) after
-//     which the curve rises, before going lower than I(k), by more than
-//     Z·√(err(k)² + err(peak)²): lag k;
+//     which the curve rises, before going lower than I(k), by more than Z standard errors
+//     of the difference (see firstSignificantMinimum): lag k;
 //  3. MethodDecorrelated — the autocorrelation is below 1/e at lag 1: lag 1;
 //  4. MethodOneOverE — the first lag with I(k) < I(0)/e;
 //  5. MethodACF — the first zero of the autocorrelation (common practice, and a quarter
@@ -104,7 +107,13 @@ func ChooseLag(x []float64, opt LagOptions) (*LagChoice, error) {
 	if z <= 0 {
 		z = 3
 	}
-	mi, err := MutualInformation(x, maxLag, opt.MI)
+	miOpt := opt.MI
+	if miOpt.Estimator == KSG && miOpt.Theiler == 0 {
+		// Pairs close in time are neighbours along the trajectory, not in the state space;
+		// leave them out (Theiler 1986) with the default window of this record.
+		miOpt.Theiler = max(full.DecayTime, 1)
+	}
+	mi, err := MutualInformation(x, maxLag, miOpt)
 	if err != nil {
 		return nil, fmt.Errorf("lag: %w", err)
 	}
@@ -135,7 +144,7 @@ func chooseLag(c *LagChoice) {
 		return
 	}
 	if k, pk, ok := firstSignificantMinimum(mi, z); ok {
-		need := z * math.Hypot(mi.Err[k], mi.Err[pk])
+		need := z * mi.DiffErr(k, pk)
 		c.Lag, c.Method = k, MethodFirstMinimum
 		c.Reason = fmt.Sprintf("first significant minimum of the mutual information at lag %d (%.4f bits; the curve rises by %.4f bits to lag %d, more than %.1f standard errors = %.4f bits)",
 			k, bits(I[k]), bits(I[pk]-I[k]), pk, z, bits(need))
@@ -179,19 +188,21 @@ func chooseLag(c *LagChoice) {
 // valley of k ends when the curve goes below I(k), or at the next local minimum that cannot
 // be told from I(k) (within Z combined standard errors: the two belong to one flat floor, as
 // for the grid-alignment wiggles of a pure sine). The minimum is significant when, within its
-// valley, the curve rises above I(k) by more than Z·√(err(k)² + err(j)²).
+// valley, the curve rises above I(k) by more than Z standard errors of the difference
+// (MICurve.DiffErr).
 func firstSignificantMinimum(mi *MICurve, z float64) (k, pk int, ok bool) {
-	I, e := mi.Nats, mi.Err
+	I := mi.Nats
 	last := len(I) - 1
 	for k = 1; k < last; k++ {
 		if !(I[k] < I[k-1] && I[k] <= I[k+1]) {
 			continue
 		}
 		for j := k + 1; j <= last && I[j] >= I[k]; j++ {
-			if I[j]-I[k] > z*math.Hypot(e[k], e[j]) {
+			d := z * mi.DiffErr(k, j)
+			if I[j]-I[k] > d {
 				return k, j, true
 			}
-			if j < last && I[j] <= I[j-1] && I[j] <= I[j+1] && I[j]-I[k] <= z*math.Hypot(e[k], e[j]) {
+			if j < last && I[j] <= I[j-1] && I[j] <= I[j+1] && I[j]-I[k] <= d {
 				break
 			}
 		}

@@ -32,7 +32,8 @@ type MIOptions struct {
 	// 20000. The histogram estimator always uses every pair.
 	MaxPoints int
 	// Theiler excludes temporal neighbours |i−j| ≤ Theiler (in samples) from the KSG
-	// neighbour search and counts; 0 excludes only the point itself.
+	// neighbour search and counts; 0 or negative excludes only the point itself (but see
+	// LagOptions for the default of ChooseLag).
 	Theiler int
 	// Blocks is the number of contiguous blocks used for the standard error; 0 means 8.
 	Blocks int
@@ -64,6 +65,32 @@ type MICurve struct {
 	Points int
 	// Blocks is the number of blocks behind Err.
 	Blocks int
+	// BlockNats[k][b] is the estimate at lag k from block b alone (nats); differences between
+	// lags are much better determined than levels, because the blocks share their
+	// fluctuations (DiffErr uses this).
+	BlockNats [][]float64
+	// GridErr[k] is the part of Err[k] that comes from where the bin edges fall (histogram:
+	// half the difference between the grid and the half-bin shifted grid; 0 for KSG).
+	GridErr []float64
+}
+
+// DiffErr returns the standard error of Nats[j] − Nats[k] in nats: the spread over blocks of
+// the block differences, divided by √Blocks, combined with both grid errors.
+func (c *MICurve) DiffErr(k, j int) float64 {
+	bk, bj := c.BlockNats[k], c.BlockNats[j]
+	nb := len(bk)
+	var m float64
+	for b := range bk {
+		m += bj[b] - bk[b]
+	}
+	m /= float64(nb)
+	var ss float64
+	for b := range bk {
+		d := bj[b] - bk[b] - m
+		ss += d * d
+	}
+	se := math.Sqrt(ss/float64(nb-1)) / math.Sqrt(float64(nb))
+	return math.Sqrt(se*se + c.GridErr[k]*c.GridErr[k] + c.GridErr[j]*c.GridErr[j])
 }
 
 // MaxLag returns the largest lag of the curve.
@@ -160,6 +187,7 @@ func histogramMI(x []float64, maxLag int, opt MIOptions) (*MICurve, error) {
 		Estimator: Histogram, Nats: make([]float64, maxLag+1), Err: make([]float64, maxLag+1),
 		Bias: float64((bins-1)*(bins-1)) / (2 * float64(n)), NullErr: float64(bins-1) / (math.Sqrt2 * float64(n)),
 		Bins: bins, Points: n, Blocks: blocks,
+		BlockNats: make([][]float64, maxLag+1), GridErr: make([]float64, maxLag+1),
 	}
 	threads := max(opt.Threads, 1)
 	threads = min(threads, maxLag+1)
@@ -170,7 +198,9 @@ func histogramMI(x []float64, maxLag int, opt MIOptions) (*MICurve, error) {
 			defer wg.Done()
 			h := newHistWork(bins, blocks)
 			for k := w; k <= maxLag; k += threads {
-				c.Nats[k], c.Err[k] = h.lag(b, bs, k)
+				var blockSE float64
+				c.Nats[k], blockSE, c.GridErr[k], c.BlockNats[k] = h.lag(b, bs, k)
+				c.Err[k] = math.Hypot(blockSE, c.GridErr[k])
 			}
 		}(w)
 	}
@@ -223,11 +253,11 @@ func newHistWork(bins, blocks int) *histWork {
 }
 
 // lag returns the estimate at lag k — the mean of the plug-in estimates on the grid and on
-// the grid shifted by half a bin along x_t — and its standard error: the block spread of
-// the mean estimate combined with half the difference between the two grids (the part of
-// the estimate that depends on where the bin edges fall, which is large for curves such
-// as a pure sine whose image is one-dimensional).
-func (h *histWork) lag(b, bs []uint16, k int) (mi, se float64) {
+// the grid shifted by half a bin along x_t — with the standard error from the block spread,
+// the grid error (half the difference between the two grids: the part of the estimate that
+// depends on where the bin edges fall, large for curves such as a pure sine whose image is
+// one-dimensional) and the block estimates (a new slice).
+func (h *histWork) lag(b, bs []uint16, k int) (mi, blockSE, gridErr float64, blocks []float64) {
 	m0, blk0 := h.grid(b, b, k, h.bins)
 	s0 := slices.Clone(blk0)
 	m1, blk1 := h.grid(bs, b, k, h.bins+1)
@@ -241,8 +271,8 @@ func (h *histWork) lag(b, bs []uint16, k int) (mi, se float64) {
 	for _, v := range s0 {
 		ss += (v - mean) * (v - mean)
 	}
-	blockSE := math.Sqrt(ss/float64(h.blocks-1)) / math.Sqrt(float64(h.blocks))
-	return (m0 + m1) / 2, math.Hypot(blockSE, (m1-m0)/2)
+	blockSE = math.Sqrt(ss/float64(h.blocks-1)) / math.Sqrt(float64(h.blocks))
+	return (m0 + m1) / 2, blockSE, math.Abs(m1-m0) / 2, s0
 }
 
 // grid fills the per-block tables for rows from r (rows values) and columns from c and returns
