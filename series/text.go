@@ -143,7 +143,7 @@ func splitFields(line []byte, delim byte, dst []span) []span {
 			if line[i] == '"' {
 				end, esc, ok := quotedEnd(line, i+1)
 				f.lo, f.hi, f.quoted, f.escaped, f.bad = i+1, end, true, esc, !ok
-				i = end + 1
+				i = min(end+1, n)
 				if i < n && line[i] != ' ' && line[i] != '\t' {
 					f.bad = true
 				}
@@ -168,7 +168,7 @@ func splitFields(line []byte, delim byte, dst []span) []span {
 		if i < n && line[i] == '"' {
 			end, esc, ok := quotedEnd(line, i+1)
 			f.lo, f.hi, f.quoted, f.escaped, f.bad = i+1, end, true, esc, !ok
-			i = end + 1
+			i = min(end+1, n)
 			for i < n && (line[i] == ' ' || (line[i] == '\t' && delim != '\t')) {
 				i++
 			}
@@ -421,10 +421,11 @@ func (c *timeCheck) add(t, q float64, line, col int) error {
 	}
 	if c.n >= 2 {
 		mean := (c.prev - c.t0) / float64(c.n-1)
-		// Two stamps each rounded to ±q/2 make a step uncertain by q; the mean step is
-		// uncertain by up to q as well. Allow that, or 1% of the step, whichever is larger,
-		// plus float64 round-off of the stamps themselves.
-		tol := math.Max(2*c.quantum, 0.01*mean) + 8*0x1p-52*math.Max(math.Abs(t), math.Abs(c.prev))
+		// Two stamps each rounded to ±q/2 make a step uncertain by q; the mean of the n−1
+		// steps so far is uncertain by q/(n−1). Allow that, or 1% of the step, whichever is
+		// larger, plus float64 round-off of the stamps themselves.
+		prec := c.quantum * (1 + 1/float64(c.n-1)) * (1 + 1e-9)
+		tol := math.Max(prec, 0.01*mean) + 8*0x1p-52*math.Max(math.Abs(t), math.Abs(c.prev))
 		if math.Abs(step-mean) > tol {
 			what := "jitter"
 			switch {
