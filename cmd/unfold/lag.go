@@ -1,0 +1,288 @@
+package main
+
+import (
+	"bytes"
+	"fmt"
+	"path/filepath"
+	"strconv"
+	"strings"
+
+	"github.com/spf13/cobra"
+	"gonum.org/v1/plot"
+	"gonum.org/v1/plot/vg"
+
+	"unfold/embed"
+	"unfold/series"
+)
+
+type lagOptions struct {
+	in      inputOptions
+	maxLag  int
+	mi      string
+	bins    int
+	k       int
+	points  int
+	z       float64
+	csvPath string
+	plot    string
+}
+
+func newLagCmd(a *app) *cobra.Command {
+	o := &lagOptions{}
+	cmd := &cobra.Command{
+		Use:   "lag FILE",
+		Short: "Mutual information and autocorrelation against the delay; the chosen lag",
+		Long: `lag estimates the mutual information between x(t) and x(t+τ) for τ = 0 … --max-lag samples
+(Fraser & Swinney 1986) and the autocorrelation (by FFT), and chooses the delay for embedding:
+
+  1. lag 1 when the information at lag 1 is already at the level of independent samples (noise);
+  2. the first local minimum of the information that is significant: the curve rises after it
+     by more than --z standard errors of the difference (errors from 8 blocks of the record and,
+     for the histogram, from a half-bin shift of the grid), so small wiggles are not minima;
+  3. lag 1 when the autocorrelation is below 1/e already at lag 1 (a map, or coarse sampling);
+  4. the first lag where the information falls below 1/e of its lag-0 value;
+  5. the first zero of the autocorrelation.
+
+The rule used is printed ("method" in JSON). The estimator is --mi hist (equiprobable bins, the
+bin count from N: round(N^(1/3)), with the independence bias (B−1)²/2N) or --mi ksg (the
+k-nearest-neighbour estimator of Kraskov, Stögbauer & Grassberger 2004, on at most --points pairs,
+leaving out pairs closer in time than the autocorrelation's 1/e decay). Information is in bits.
+The suggested Theiler window (the 1/e decay time of the autocorrelation) is printed as well.`,
+		Example: `  # a Lorenz signal sampled at dt = 0.01: the lag and the curves as a table
+  unfold simulate lorenz --n 50000 -o lorenz.csv
+  unfold lag lorenz.csv
+  # the same as JSON, with the k-nearest-neighbour estimator, and the figure
+  unfold lag --json --mi ksg --plot lag.png lorenz.csv
+  # scan further and keep the curve
+  unfold lag --max-lag 200 --csv mi.csv lorenz.csv`,
+		Args: exactArgs(1),
+		RunE: func(cmd *cobra.Command, args []string) error {
+			return a.runLag(args[0], o)
+		},
+	}
+	addInputFlags(cmd, &o.in)
+	f := cmd.Flags()
+	f.IntVar(&o.maxLag, "max-lag", 0, "largest lag scanned, in samples (default: max(20, 2×first zero, 4×1/e decay of the autocorrelation), at most 500 and N/4)")
+	f.StringVar(&o.mi, "mi", embed.Histogram, "mutual-information estimator: hist (equiprobable bins) or ksg (k nearest neighbours)")
+	f.IntVar(&o.bins, "bins", 0, "bins per axis for --mi hist (default: round(N^(1/3)) in [4, 128])")
+	f.IntVar(&o.k, "k", 4, "neighbours for --mi ksg")
+	f.IntVar(&o.points, "points", 20000, "pairs per lag for --mi ksg (evenly spaced in time)")
+	f.Float64Var(&o.z, "z", 3, "significance of a minimum, in standard errors")
+	f.StringVar(&o.csvPath, "csv", "", "write the curves to this CSV file (lag, lag_time, mi_bits, mi_error_bits, autocorrelation)")
+	f.StringVar(&o.plot, "plot", "", "draw the curves with the chosen lag marked (.png or .svg)")
+	return cmd
+}
+
+// prepParams are the reading and preprocessing parameters recorded in every JSON output of the
+// embedding commands.
+type prepParams struct {
+	Column      string `json:"column"`
+	Detrend     string `json:"detrend"`
+	Standardize bool   `json:"standardize"`
+	Decimate    int    `json:"decimate"`
+	From        string `json:"from"`
+	To          string `json:"to"`
+	Gaps        string `json:"gaps"`
+}
+
+func newPrepParams(s *series.Series, o *inputOptions) prepParams {
+	return prepParams{Column: s.Name, Detrend: o.prep.Detrend, Standardize: o.prep.Standardize,
+		Decimate: max(o.prep.Decimate, 1), From: o.prep.From, To: o.prep.To, Gaps: o.read.Gaps}
+}
+
+type lagParams struct {
+	prepParams
+	Estimator string  `json:"estimator"`
+	Bins      int     `json:"bins,omitempty"`
+	K         int     `json:"k,omitempty"`
+	Points    int     `json:"points"`
+	MaxLag    int     `json:"max_lag"`
+	Z         float64 `json:"z"`
+	Threads   int     `json:"threads"`
+}
+
+type miPoint struct {
+	Lag       int     `json:"lag"`
+	Bits      float64 `json:"bits"`
+	ErrorBits float64 `json:"error_bits"`
+}
+
+type acfPoint struct {
+	Lag int     `json:"lag"`
+	R   float64 `json:"r"`
+}
+
+type lagResult struct {
+	Lag                  int        `json:"lag"`
+	LagTime              float64    `json:"lag_time"`
+	Method               string     `json:"method"`
+	Reason               string     `json:"reason"`
+	BiasBits             float64    `json:"bias_bits"`
+	AutocorrelationZero  int        `json:"autocorrelation_first_zero"`
+	AutocorrelationDecay int        `json:"autocorrelation_decay"`
+	Theiler              int        `json:"theiler"`
+	MutualInformation    []miPoint  `json:"mutual_information"`
+	Autocorrelation      []acfPoint `json:"autocorrelation"`
+	Cautions             []string   `json:"cautions"`
+}
+
+func (a *app) lagOptionsFrom(o *lagOptions) (embed.LagOptions, error) {
+	if o.mi != embed.Histogram && o.mi != embed.KSG {
+		return embed.LagOptions{}, usagef("lag: --mi %q: want hist or ksg", o.mi)
+	}
+	if o.maxLag < 0 || o.bins < 0 || o.k < 1 || o.points < 1 || !(o.z > 0) {
+		return embed.LagOptions{}, usagef("lag: --max-lag and --bins must be ≥ 0, --k and --points ≥ 1, --z > 0")
+	}
+	return embed.LagOptions{MaxLag: o.maxLag, Z: o.z, MI: embed.MIOptions{Estimator: o.mi, Bins: o.bins,
+		K: o.k, MaxPoints: o.points, Threads: a.threads()}}, nil
+}
+
+func (a *app) runLag(path string, o *lagOptions) error {
+	if err := checkFigurePath(o.plot); err != nil {
+		return err
+	}
+	lo, err := a.lagOptionsFrom(o)
+	if err != nil {
+		return err
+	}
+	s, in, err := a.loadInput(path, &o.in)
+	if err != nil {
+		return err
+	}
+	if err := series.CheckVariable(s.Values); err != nil {
+		return err
+	}
+	c, err := embed.ChooseLag(s.Values, lo)
+	if err != nil {
+		return noAnswer(fmt.Errorf("lag: %s: %w", path, err))
+	}
+	res := lagResult{Lag: c.Lag, LagTime: float64(c.Lag) * s.Dt, Method: c.Method, Reason: c.Reason,
+		BiasBits: c.MI.Bias / ln2, AutocorrelationZero: c.ACF.FirstZero, AutocorrelationDecay: c.ACF.DecayTime,
+		Theiler: embed.DefaultTheiler(c.ACF), Cautions: c.Cautions}
+	if res.Cautions == nil {
+		res.Cautions = []string{}
+	}
+	for k := range c.MI.Nats {
+		res.MutualInformation = append(res.MutualInformation, miPoint{Lag: k, Bits: c.MI.Bits(k), ErrorBits: c.MI.Err[k] / ln2})
+		res.Autocorrelation = append(res.Autocorrelation, acfPoint{Lag: k, R: c.ACF.R[k]})
+	}
+	if o.csvPath != "" {
+		n := len(c.MI.Nats)
+		cols := make([][]float64, 5)
+		for i := range cols {
+			cols[i] = make([]float64, n)
+		}
+		for k := 0; k < n; k++ {
+			cols[0][k], cols[1][k], cols[2][k], cols[3][k], cols[4][k] = float64(k), float64(k)*s.Dt, c.MI.Bits(k), c.MI.Err[k]/ln2, c.ACF.R[k]
+		}
+		if err := writeCSVFile(o.csvPath, path, []string{"lag", "lag_time", "mi_bits", "mi_error_bits", "autocorrelation"}, cols...); err != nil {
+			return err
+		}
+	}
+	if o.plot != "" {
+		rows, err := embed.LagPlots(c, figureOf(path, s))
+		if err != nil {
+			return fmt.Errorf("lag: figure: %w", err)
+		}
+		if err := writeFigureFile(o.plot, path, 9*vg.Inch, 7.5*vg.Inch, rows); err != nil {
+			return err
+		}
+	}
+	if a.global.JSON {
+		p := lagParams{prepParams: newPrepParams(s, &o.in), Estimator: c.MI.Estimator, MaxLag: c.MaxLag,
+			Points: c.MI.Points, Z: c.Z, Threads: a.threads()}
+		if c.MI.Estimator == embed.KSG {
+			p.K = c.MI.K
+		} else {
+			p.Bins = c.MI.Bins
+		}
+		return a.emitJSON("lag", in, p, res)
+	}
+	est := fmt.Sprintf("equiprobable bins (B = %d, independence bias %.4f bits)", c.MI.Bins, res.BiasBits)
+	if c.MI.Estimator == embed.KSG {
+		est = fmt.Sprintf("KSG (k = %d, %d pairs per lag)", c.MI.K, c.MI.Points)
+	}
+	rows := [][]string{{"lag", "lag_time", "mi_bits", "± error", "autocorrelation", ""}}
+	show := min(len(c.MI.Nats)-1, max(2*c.Lag, 20))
+	for k := 0; k <= show; k++ {
+		mark := ""
+		if k == c.Lag {
+			mark = "<- chosen"
+		}
+		rows = append(rows, []string{strconv.Itoa(k), fmtG(float64(k) * s.Dt), fmt.Sprintf("%.4f", c.MI.Bits(k)),
+			fmt.Sprintf("%.4f", c.MI.Err[k]/ln2), fmt.Sprintf("%.4f", c.ACF.R[k]), mark})
+	}
+	if err := a.table(rows); err != nil {
+		return err
+	}
+	if show < len(c.MI.Nats)-1 {
+		fmt.Fprintf(a.stdout, "(lags %d … %d not shown; --csv or --json give the whole curve)\n", show+1, len(c.MI.Nats)-1)
+	}
+	fmt.Fprintf(a.stdout, "estimator: %s\n", est)
+	fmt.Fprintf(a.stdout, "autocorrelation: first zero at lag %d, 1/e decay at lag %d; suggested Theiler window %d samples\n",
+		c.ACF.FirstZero, c.ACF.DecayTime, res.Theiler)
+	fmt.Fprintf(a.stdout, "lag: %d samples = %s time units (%s)\n%s\n", c.Lag, fmtG(res.LagTime), c.Method, c.Reason)
+	for _, w := range c.Cautions {
+		fmt.Fprintf(a.stdout, "caution: %s\n", w)
+	}
+	return nil
+}
+
+const ln2 = 0.6931471805599453
+
+func fmtG(v float64) string { return strconv.FormatFloat(v, 'g', 6, 64) }
+
+// figureOf describes the record for the figure titles and axis labels.
+func figureOf(path string, s *series.Series) embed.Figure {
+	title := filepath.Base(path)
+	if path == "-" {
+		title = "standard input"
+	}
+	return embed.Figure{Title: title, Signal: s.Name, Unit: s.Unit, Dt: s.Dt, TimeUnit: "time units"}
+}
+
+// checkFigurePath accepts "" or a name ending in .png or .svg.
+func checkFigurePath(p string) error {
+	if p == "" {
+		return nil
+	}
+	switch strings.ToLower(filepath.Ext(p)) {
+	case ".png", ".svg":
+		return nil
+	}
+	return usagef("figure %s: the name must end in .png or .svg", p)
+}
+
+// writeFigureFile draws rows into path (format from the extension) through an atomic file.
+func writeFigureFile(path, input string, w, h vg.Length, rows [][]*plot.Plot) error {
+	var buf bytes.Buffer
+	if err := embed.WriteFigure(&buf, strings.TrimPrefix(strings.ToLower(filepath.Ext(path)), "."), w, h, rows); err != nil {
+		return err
+	}
+	return writeBytesFile(path, input, buf.Bytes())
+}
+
+func writeBytesFile(path, input string, b []byte) error {
+	f, err := series.CreateAtomic(path, input)
+	if err != nil {
+		return err
+	}
+	defer f.Abort()
+	if _, err := f.Write(b); err != nil {
+		return fmt.Errorf("writing %s: %w", path, err)
+	}
+	return f.Commit()
+}
+
+// writeCSVFile writes columns with a header through an atomic file.
+func writeCSVFile(path, input string, header []string, cols ...[]float64) error {
+	f, err := series.CreateAtomic(path, input)
+	if err != nil {
+		return err
+	}
+	defer f.Abort()
+	if err := series.WriteCSV(f, header, cols...); err != nil {
+		return fmt.Errorf("writing %s: %w", path, err)
+	}
+	return f.Commit()
+}
