@@ -271,7 +271,7 @@ func DimPlots(c *DimChoice, f Figure) ([][]*plot.Plot, error) {
 		ms[i] = float64(p.Dim)
 		fr[i] = 100 * p.Fraction
 	}
-	top := newPlot(fmt.Sprintf("%s — false nearest neighbours of %s, lag %s, Theiler window %d", f.Title, f.signal(), f.lagText(c.Lag), c.Theiler),
+	top := newPlot(fmt.Sprintf("%s — false nearest neighbours of %s, lag %s, Theiler window %d samples", f.Title, f.signal(), f.lagText(c.Lag), c.Theiler),
 		"", "false neighbours [% of points]")
 	if err := addCurve(top, ms, fr, colorMain(), fmt.Sprintf("false fraction (R_tol %g, A_tol %g)", c.RTol, c.ATol), true); err != nil {
 		return nil, err

@@ -35,6 +35,7 @@ an answer (the message says why), 2 bad usage or bad input (the message says wha
 	root.AddCommand(
 		newInspectCmd(a),
 		newLagCmd(a),
+		newDimCmd(a),
 	)
 	return root
 }
