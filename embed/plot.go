@@ -328,14 +328,13 @@ func STPPlot(s *STP, e Embedding, theiler int, f Figure) (*plot.Plot, error) {
 	for i, d := range s.Dt {
 		dts[i] = float64(d)
 	}
-	cm := moreland.SmoothBlueRed()
-	cm.SetMin(0)
-	cm.SetMax(1)
+	ramp := []color.Color{
+		color.RGBA{R: 0x08, G: 0x30, B: 0x6b, A: 0xff}, color.RGBA{R: 0x21, G: 0x71, B: 0xb5, A: 0xff},
+		color.RGBA{R: 0x1b, G: 0x9e, B: 0x77, A: 0xff}, color.RGBA{R: 0xd9, G: 0x5f, B: 0x02, A: 0xff},
+		color.RGBA{R: 0xe7, G: 0x29, B: 0x8a, A: 0xff}, color.RGBA{R: 0x67, G: 0x00, B: 0x0d, A: 0xff},
+	}
 	for i, fr := range s.Fractions {
-		col, err := cm.At(float64(i) / math.Max(1, float64(len(s.Fractions)-1)))
-		if err != nil {
-			col = colorMain()
-		}
+		col := ramp[i%len(ramp)]
 		if err := addCurve(p, dts, s.Dist[i], col, fmt.Sprintf("%g %% of pairs closer", 100*fr), false); err != nil {
 			return nil, err
 		}
@@ -344,8 +343,10 @@ func STPPlot(s *STP, e Embedding, theiler int, f Figure) (*plot.Plot, error) {
 		vline(p, float64(theiler), colorGuide(), "Theiler window "+f.lagText(theiler), true)
 	}
 	p.Y.Min = 0
-	p.Legend.Left = false
-	p.Legend.Top = false
+	p.X.Min = 0
+	p.Legend.Left = true
+	p.Legend.Top = true
+	p.Legend.XOffs = vg.Millimeter * 3
 	return p, nil
 }
 
@@ -427,7 +428,7 @@ func addAxesTriad(p *plot.Plot, px, py []float64, az, el float64, sig string) {
 	x0, x1 := minOf(px), maxOf(px)
 	y0, y1 := minOf(py), maxOf(py)
 	size := 0.12 * math.Max(x1-x0, y1-y0)
-	ox, oy := x0-0.02*(x1-x0), y0-0.04*(y1-y0)
+	ox, oy := x0+0.08*(x1-x0), y0-0.02*(y1-y0)
 	names := []string{sig + "(t)", sig + "(t+τ)", sig + "(t+2τ)"}
 	dirs := [][3]float64{{1, 0, 0}, {0, 1, 0}, {0, 0, 1}}
 	var labels plotter.XYLabels

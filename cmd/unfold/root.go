@@ -36,6 +36,7 @@ an answer (the message says why), 2 bad usage or bad input (the message says wha
 		newInspectCmd(a),
 		newLagCmd(a),
 		newDimCmd(a),
+		newEmbedCmd(a),
 	)
 	return root
 }
