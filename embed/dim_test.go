@@ -172,3 +172,24 @@ func logDim(t *testing.T, c *DimChoice) {
 }
 
 func ftoa(v float64) string { return strconv.FormatFloat(v, 'f', 3, 64) }
+
+// TestFNNScipyReference compares with the general-purpose reference: scipy's cKDTree run by
+// /work/shared/bench/reference_fnn.py (Kennel et al. 1992 criteria, no Theiler window) on the
+// same Lorenz record written with 10 significant digits (N = 50000, lag 17, m = 1 … 6). The
+// reference printed 0.9980593401756597, 0.07044790457511108, 0.0002002042082924583, 0, 0, 0.
+func TestFNNScipyReference(t *testing.T) {
+	x := lorenzX(50000, 0.01)
+	for i, v := range x {
+		x[i], _ = strconv.ParseFloat(strconv.FormatFloat(v, 'g', 10, 64), 64)
+	}
+	want := []float64{0.9980593401756597, 0.07044790457511108, 0.0002002042082924583, 0, 0, 0}
+	c, err := ChooseDimension(x, DimOptions{Lag: 17, MaxDim: 6, Theiler: 0, Threads: 2})
+	if err != nil {
+		t.Fatal(err)
+	}
+	for m, w := range want {
+		if math.Abs(c.FNN[m].Fraction-w) > 1e-12 {
+			t.Errorf("m = %d: %.16g, scipy reference %.16g", m+1, c.FNN[m].Fraction, w)
+		}
+	}
+}
