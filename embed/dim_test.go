@@ -193,3 +193,22 @@ func TestFNNScipyReference(t *testing.T) {
 		}
 	}
 }
+
+// TestDimThreadsDeterministic: the scan gives identical results for any thread count
+// (DESIGN.md §5).
+func TestDimThreadsDeterministic(t *testing.T) {
+	x := lorenzX(8000, 0.01)
+	a, err := ChooseDimension(x, DimOptions{Lag: 12, MaxDim: 5, Theiler: 20, Threads: 1})
+	if err != nil {
+		t.Fatal(err)
+	}
+	b, err := ChooseDimension(x, DimOptions{Lag: 12, MaxDim: 5, Theiler: 20, Threads: 3})
+	if err != nil {
+		t.Fatal(err)
+	}
+	for m := range a.FNN {
+		if a.FNN[m] != b.FNN[m] || a.E[m] != b.E[m] || a.EStar[m] != b.EStar[m] {
+			t.Errorf("m = %d: 1 thread %+v, 3 threads %+v", m+1, a.FNN[m], b.FNN[m])
+		}
+	}
+}

@@ -48,7 +48,7 @@ func ksgMI(x []float64, maxLag int, opt MIOptions) (*MICurve, error) {
 	}
 	w := max(opt.Theiler, 0) / stride // window in subsample index units
 	c := &MICurve{Estimator: KSG, Nats: make([]float64, maxLag+1), Err: make([]float64, maxLag+1),
-		K: k, Points: m, Blocks: blocks,
+		K: k, Points: m, Blocks: blocks, Theiler: w * stride,
 		BlockNats: make([][]float64, maxLag+1), GridErr: make([]float64, maxLag+1)}
 	pts := make([]float64, 2*m)
 	xs := make([]float64, m)

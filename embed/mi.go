@@ -65,6 +65,8 @@ type MICurve struct {
 	Points int
 	// Blocks is the number of blocks behind Err.
 	Blocks int
+	// Theiler is the temporal exclusion window used by KSG, in samples (0 for the histogram).
+	Theiler int
 	// BlockNats[k][b] is the estimate at lag k from block b alone (nats); differences between
 	// lags are much better determined than levels, because the blocks share their
 	// fluctuations (DiffErr uses this).

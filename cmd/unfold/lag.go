@@ -96,6 +96,7 @@ type lagParams struct {
 	Bins      int     `json:"bins,omitempty"`
 	K         int     `json:"k,omitempty"`
 	Points    int     `json:"points"`
+	Theiler   int     `json:"ksg_theiler,omitempty"`
 	MaxLag    int     `json:"max_lag"`
 	Z         float64 `json:"z"`
 	Threads   int     `json:"threads"`
@@ -192,7 +193,7 @@ func (a *app) runLag(path string, o *lagOptions) error {
 		p := lagParams{prepParams: newPrepParams(s, &o.in), Estimator: c.MI.Estimator, MaxLag: c.MaxLag,
 			Points: c.MI.Points, Z: c.Z, Threads: a.threads()}
 		if c.MI.Estimator == embed.KSG {
-			p.K = c.MI.K
+			p.K, p.Theiler = c.MI.K, c.MI.Theiler
 		} else {
 			p.Bins = c.MI.Bins
 		}
