@@ -202,6 +202,13 @@ func histogramMI(x []float64, maxLag int, opt MIOptions) (*MICurve, error) {
 			for k := w; k <= maxLag; k += threads {
 				var blockSE float64
 				c.Nats[k], blockSE, c.GridErr[k], c.BlockNats[k] = h.lag(b, bs, k)
+				if k == 0 {
+					// I(X;X) on one grid is the entropy of the binned record, ln B for
+					// equiprobable bins without ties; the two grids are not comparable here.
+					c.Nats[0], c.BlockNats[0] = h.lagZero(b)
+					c.GridErr[0] = 0
+					blockSE = 0
+				}
 				c.Err[k] = math.Hypot(blockSE, c.GridErr[k])
 			}
 		}(w)
@@ -275,6 +282,13 @@ func (h *histWork) lag(b, bs []uint16, k int) (mi, blockSE, gridErr float64, blo
 	}
 	blockSE = math.Sqrt(ss/float64(h.blocks-1)) / math.Sqrt(float64(h.blocks))
 	return (m0 + m1) / 2, blockSE, math.Abs(m1-m0) / 2, s0
+}
+
+// lagZero returns the plug-in I(X;X) on the unshifted grid (the binned entropy) and its block
+// estimates (a new slice).
+func (h *histWork) lagZero(b []uint16) (float64, []float64) {
+	m, blk := h.grid(b, b, 0, h.bins)
+	return m, slices.Clone(blk)
 }
 
 // grid fills the per-block tables for rows from r (rows values) and columns from c and returns
