@@ -395,6 +395,9 @@ func StateSpacePlots(e Embedding, f Figure, opt StateSpaceOptions) ([][]*plot.Pl
 		return nil, err
 	}
 	row := []*plot.Plot{p2}
+	if dense {
+		p2.Title.Text += "\ncolour: log10 of the number of vectors per cell (white: none)"
+	}
 	if e.Dim >= 3 {
 		az, el := opt.Azimuth*math.Pi/180, opt.Elevation*math.Pi/180
 		px := make([]float64, n)
