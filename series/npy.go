@@ -34,14 +34,12 @@ func readNpyHeader(r io.Reader, path string) (*npyHeader, error) {
 		return &InputError{Path: path, Msg: "not a valid .npy file: " + fmt.Sprintf(format, a...)}
 	}
 	var pre [10]byte
-	if n, err := io.ReadFull(r, pre[:8]); err != nil {
-		if n >= 6 && string(pre[:6]) == "\x93NUMPY" {
-			return nil, bad("truncated header")
-		}
-		return nil, bad("too short")
-	}
-	if string(pre[:6]) != "\x93NUMPY" {
+	n, err := io.ReadFull(r, pre[:8])
+	if !bytes.HasPrefix([]byte("\x93NUMPY"), pre[:min(n, 6)]) || n == 0 {
 		return nil, bad("no \\x93NUMPY magic")
+	}
+	if err != nil {
+		return nil, bad("truncated header")
 	}
 	var hlen int
 	raw := pre[:8]
