@@ -31,7 +31,7 @@ func TestPrepRange(t *testing.T) {
 		{"milliseconds", ramp(100, 0.5, 0, "s"), "2500ms", "", 5, 95, 2.5},
 		{"minutes on a seconds record", ramp(200, 1, 0, "s"), "1min", "2min", 60, 60, 60},
 		{"own unit", ramp(100, 0.25, 10, ""), "11t", "12.1t", 4, 5, 11},
-		{"years on a year clock", ramp(120, 1.0 / 12, 1959, "y"), "1960y", "1961y", 12, 12, 1960},
+		{"years on a year clock", ramp(120, 1.0/12, 1959, "y"), "1960y", "1961y", 12, 12, 1960},
 		{"days on an hour record", ramp(100, 1, 0, "h"), "1d", "", 24, 76, 24},
 		{"between samples rounds up", ramp(10, 1, 0, "s"), "2.2s", "4.5s", 3, 2, 3},
 		{"before the start", ramp(10, 1, 5, "s"), "1s", "100s", 0, 10, 5},
