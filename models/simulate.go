@@ -173,7 +173,7 @@ func (s Spec) Simulate(params Values, opt Options) (*Trajectory, error) {
 	for c, col := range tr.Data {
 		for i, v := range col {
 			if math.IsNaN(v) || math.IsInf(v, 0) {
-				return nil, fmt.Errorf("simulate %s: the orbit left to infinity (column %s, sample %d); choose parameters or an initial condition inside the basin of the attractor", s.Name, tr.Columns[c], i)
+				return nil, fmt.Errorf("simulate %s: %w", s.Name, &EscapeError{Column: tr.Columns[c], Sample: i})
 			}
 		}
 	}
@@ -204,4 +204,23 @@ func stdDev(x []float64) float64 {
 		ss += (v - m) * (v - m)
 	}
 	return math.Sqrt(ss / float64(len(x)))
+}
+
+// EscapeError reports an orbit that left to infinity (or became NaN): the parameters or the
+// initial condition lie outside the basin of a bounded attractor.
+type EscapeError struct {
+	Column string // the state variable where it was seen ("" for tangent vectors)
+	Sample int    // the sample (or renormalisation interval) where it was seen
+}
+
+func (e *EscapeError) Error() string {
+	what := "the orbit"
+	if e.Column == "" {
+		what = "the orbit or its tangent vectors"
+	}
+	where := fmt.Sprintf("sample %d", e.Sample)
+	if e.Column != "" {
+		where = fmt.Sprintf("column %s, sample %d", e.Column, e.Sample)
+	}
+	return fmt.Sprintf("%s left to infinity (%s); choose parameters or an initial condition inside the basin of the attractor", what, where)
 }

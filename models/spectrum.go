@@ -109,7 +109,7 @@ func FlowSpectrum(f Flow, x0 []float64, h float64, every, intervals, skip int) (
 	for it := 0; it < intervals; it++ {
 		rk.Advance(y, h, every)
 		if !gramSchmidt(q, n, sums) {
-			return nil, fmt.Errorf("the tangent vectors degenerated or the orbit diverged after %d intervals", it)
+			return nil, &EscapeError{Sample: it}
 		}
 	}
 	T := float64(intervals) * float64(every) * h
@@ -156,7 +156,7 @@ func MapSpectrum(m Map, x0 []float64, iterations, skip int) (*Spectrum, error) {
 			acc = nil
 		}
 		if !gramSchmidt(q, n, acc) {
-			return nil, fmt.Errorf("the tangent vectors degenerated or the orbit diverged at iteration %d", it+skip)
+			return nil, &EscapeError{Sample: it + skip}
 		}
 	}
 	return finish(sums, float64(iterations), iterations, 0), nil

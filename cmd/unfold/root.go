@@ -34,6 +34,7 @@ an answer (the message says why), 2 bad usage or bad input (the message says wha
 
 	root.AddCommand(
 		newInspectCmd(a),
+		newSimulateCmd(a),
 		newLagCmd(a),
 		newDimCmd(a),
 		newEmbedCmd(a),
