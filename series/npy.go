@@ -210,6 +210,9 @@ func readNpy(r io.Reader, path string, opt ReadOptions) (*Series, []string, erro
 	if len(h.shape) == 2 {
 		cols = h.shape[1]
 	}
+	if rows == 0 || cols == 0 {
+		return nil, nil, &InputError{Path: path, Msg: fmt.Sprintf("empty series: the array has shape %v", h.shape)}
+	}
 	col := 0
 	name := "x"
 	if spec := strings.TrimSpace(opt.Column); spec != "" {
