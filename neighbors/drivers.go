@@ -83,7 +83,8 @@ func (ix *Index) AllKNN(k int, theiler int, lo, hi int, threads int, progress fu
 	dist = make([]float64, n*k)
 	dim := ix.dim
 	ix.parallel(n, chunkFor(n), threads, progress, func(s *Searcher, start, end int) {
-		var buf []Neighbor
+		buf := s.nbuf
+		defer func() { s.nbuf = buf }()
 		for p := start; p < end; p++ {
 			i := int(ix.perm[p])
 			buf = s.KNN(ix.pts[p*dim:p*dim+dim], k, Query{Self: i, Theiler: theiler, Lo: lo, Hi: hi}, buf)

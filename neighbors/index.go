@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"sync"
 )
 
 // Norm selects the distance between two points.
@@ -117,11 +118,11 @@ func build(src []float64, n, dim, rowStride, colStride int, norm Norm) (*Index, 
 		ix.perm[i] = int32(i)
 	}
 	if n > 0 {
-		est := 2*(n/leafSize) + 1
-		ix.nodes = make([]node, 0, est)
-		ix.box = make([]float64, 0, est*2*dim)
+		nn := nodeCount(n)
+		ix.nodes = make([]node, nn)
+		ix.box = make([]float64, nn*2*dim)
 		b := builder{ix: ix, src: src, rs: rowStride, cs: colStride}
-		b.node(0, n)
+		b.node(0, 0, n, 0)
 	}
 	ix.pts = make([]float64, n*dim)
 	ix.inv = make([]int32, n)
@@ -136,6 +137,17 @@ func build(src []float64, n, dim, rowStride, colStride int, norm Norm) (*Index, 
 	return ix, nil
 }
 
+// nodeCount returns the number of nodes of the subtree over size points. Node ids are assigned
+// in preorder from it, so subtrees can be built concurrently and the tree does not depend on
+// the order in which they finish.
+func nodeCount(size int) int {
+	if size <= leafSize {
+		return 1
+	}
+	h := size / 2
+	return 1 + nodeCount(h) + nodeCount(size-h)
+}
+
 type builder struct {
 	ix     *Index
 	src    []float64
@@ -144,65 +156,60 @@ type builder struct {
 
 func (b *builder) at(i int32, d int) float64 { return b.src[int(i)*b.rs+d*b.cs] }
 
-// node builds the subtree over tree positions [start, end) and returns its id.
-func (b *builder) node(start, end int) int32 {
+// parallelBuildSize is the smallest subtree whose two halves are built on separate goroutines.
+const parallelBuildSize = 1 << 15
+
+// node builds node id over tree positions [start, end) at the given depth.
+func (b *builder) node(id, start, end, depth int) {
 	ix := b.ix
 	dim := ix.dim
-	id := int32(len(ix.nodes))
-	ix.nodes = append(ix.nodes, node{start: int32(start), end: int32(end), left: -1, right: -1})
-	off := len(ix.box)
-	for range 2 * dim {
-		ix.box = append(ix.box, 0)
+	nd := &ix.nodes[id]
+	*nd = node{start: int32(start), end: int32(end), left: -1, right: -1}
+	lo := ix.box[id*2*dim : id*2*dim+dim]
+	hi := ix.box[id*2*dim+dim : id*2*dim+2*dim]
+	for d := range dim {
+		lo[d], hi[d] = math.Inf(1), math.Inf(-1)
 	}
-	if end-start <= leafSize {
-		lo := ix.box[off : off+dim]
-		hi := ix.box[off+dim : off+2*dim]
-		mn, mx := int32(math.MaxInt32), int32(-1)
+	mn, mx := int32(math.MaxInt32), int32(-1)
+	for _, i := range ix.perm[start:end] {
+		mn, mx = min(mn, i), max(mx, i)
+		base := int(i) * b.rs
 		for d := range dim {
-			lo[d], hi[d] = math.Inf(1), math.Inf(-1)
-		}
-		for _, i := range ix.perm[start:end] {
-			mn, mx = min(mn, i), max(mx, i)
-			for d := range dim {
-				v := b.at(i, d)
-				lo[d] = min(lo[d], v)
-				hi[d] = max(hi[d], v)
+			v := b.src[base+d*b.cs]
+			if v < lo[d] {
+				lo[d] = v
+			}
+			if v > hi[d] {
+				hi[d] = v
 			}
 		}
-		ix.nodes[id].minIdx, ix.nodes[id].maxIdx = mn, mx
-		return id
 	}
-	// Widest dimension of the points (computed directly, since the box is filled from the children).
+	nd.minIdx, nd.maxIdx = mn, mx
+	if end-start <= leafSize {
+		return
+	}
 	split, width := 0, -1.0
 	for d := range dim {
-		lo, hi := math.Inf(1), math.Inf(-1)
-		for _, i := range ix.perm[start:end] {
-			v := b.at(i, d)
-			lo = min(lo, v)
-			hi = max(hi, v)
-		}
-		if hi-lo > width {
-			split, width = d, hi-lo
+		if hi[d]-lo[d] > width {
+			split, width = d, hi[d]-lo[d]
 		}
 	}
 	mid := start + (end-start)/2
 	b.selectNth(ix.perm[start:end], split, mid-start)
-	l := b.node(start, mid)
-	r := b.node(mid, end)
-	nd := &ix.nodes[id]
-	nd.left, nd.right, nd.split = l, r, int32(split)
-	ln, rn := &ix.nodes[l], &ix.nodes[r]
-	nd.minIdx, nd.maxIdx = min(ln.minIdx, rn.minIdx), max(ln.maxIdx, rn.maxIdx)
-	lb := ix.box[int(l)*2*dim : int(l)*2*dim+2*dim]
-	rb := ix.box[int(r)*2*dim : int(r)*2*dim+2*dim]
-	box := ix.box[off : off+2*dim]
-	for d := range dim {
-		box[d] = min(lb[d], rb[d])
-		box[dim+d] = max(lb[dim+d], rb[dim+d])
+	l := id + 1
+	r := l + nodeCount(mid-start)
+	if end-start >= parallelBuildSize && depth < 4 {
+		var wg sync.WaitGroup
+		wg.Go(func() { b.node(l, start, mid, depth+1) })
+		b.node(r, mid, end, depth+1)
+		wg.Wait()
+	} else {
+		b.node(l, start, mid, depth+1)
+		b.node(r, mid, end, depth+1)
 	}
-	nd.lmax = lb[dim+split]
-	nd.rmin = rb[split]
-	return id
+	nd.left, nd.right, nd.split = int32(l), int32(r), int32(split)
+	nd.lmax = ix.box[l*2*dim+dim+split]
+	nd.rmin = ix.box[r*2*dim+split]
 }
 
 // selectNth reorders perm so that perm[k] holds the point of rank k in coordinate d, with no

@@ -40,6 +40,10 @@ type Searcher struct {
 	// candidate filter: j is admissible when lo <= j < hi and not wlo <= j <= whi
 	lo, hi   int
 	wlo, whi int
+	span     uint // hi − lo
+	wspan    uint // whi − wlo
+
+	nbuf []Neighbor // scratch of the all-points drivers
 
 	// k nearest neighbours: best is sorted by (key, idx) and holds at most k entries
 	k         int
@@ -81,14 +85,15 @@ func (s *Searcher) setup(q []float64, opt Query) bool {
 		w := max(opt.Theiler, 0)
 		s.wlo, s.whi = opt.Self-w, opt.Self+w
 	} else {
-		s.wlo, s.whi = math.MinInt, math.MinInt
+		s.wlo, s.whi = -2, -2 // j − (−2) > 0 for every j >= 0
 	}
+	s.span, s.wspan = uint(s.hi-s.lo), uint(s.whi-s.wlo)
 	return true
 }
 
 // admissible reports whether original index j passes the filter.
 func (s *Searcher) admissible(j int) bool {
-	return j >= s.lo && j < s.hi && (j < s.wlo || j > s.whi)
+	return uint(j-s.lo) < s.span && uint(j-s.wlo) > s.wspan
 }
 
 // excludedNode reports whether every point of nd fails the filter.
@@ -148,9 +153,37 @@ func (s *Searcher) KNN(q []float64, k int, opt Query, dst []Neighbor) []Neighbor
 	return dst
 }
 
-// pruneKNN reports whether a subtree with lower bound rd cannot improve the current k best.
+// boundSlack is the relative error allowed for the incrementally updated Euclidean lower bound:
+// each update rd − old² + new² errs by a few units in the last place of the (nondecreasing)
+// bound, and a path has fewer than 64 updates. Decisions within the slack use the exact sum.
+const boundSlack = 1e-12
+
+// childBound returns the lower bound of a child whose offset in one dimension grows from old to
+// off, given the parent's bound rd: exact for the maximum norm, within boundSlack otherwise.
+func (s *Searcher) childBound(rd, old, off float64) float64 {
+	if s.ix.norm == Max {
+		return max(rd, off)
+	}
+	return rd + (float64(off*off) - float64(old*old))
+}
+
+// exactBound returns the bound to compare with t: rd itself when it is exact or clearly on one
+// side of t, otherwise the exact sum over s.off.
+func (s *Searcher) exactBound(rd, t float64) float64 {
+	if s.ix.norm == Max || rd > t*(1+boundSlack) || rd < t*(1-boundSlack) {
+		return rd
+	}
+	return s.bound()
+}
+
+// pruneKNN reports whether a subtree with (approximate) lower bound rd cannot improve the
+// current k best.
 func (s *Searcher) pruneKNN(nd *node, rd float64) bool {
-	return rd > s.worstKey || (rd == s.worstKey && int(nd.minIdx) > s.worstIdx) || s.excludedNode(nd)
+	if s.excludedNode(nd) {
+		return true
+	}
+	b := s.exactBound(rd, s.worstKey)
+	return b > s.worstKey || (b == s.worstKey && int(nd.minIdx) > s.worstIdx)
 }
 
 func (s *Searcher) knn(id int32, rd float64) {
@@ -181,7 +214,7 @@ func (s *Searcher) visitKNN(id int32, d int32, old, off, rd float64) {
 	nd := &s.ix.nodes[id]
 	if off != old {
 		s.off[d] = off
-		rd = s.bound()
+		rd = s.childBound(rd, old, off)
 	}
 	if !s.pruneKNN(nd, rd) {
 		s.knn(id, rd)
@@ -192,14 +225,42 @@ func (s *Searcher) visitKNN(id int32, d int32, old, off, rd float64) {
 func (s *Searcher) leafKNN(nd *node) {
 	ix := s.ix
 	dim := ix.dim
-	q := s.q
-	for p := int(nd.start); p < int(nd.end); p++ {
-		j := int(ix.perm[p])
-		if !s.admissible(j) {
+	start, end := int(nd.start), int(nd.end)
+	perm := ix.perm[start:end]
+	pts := ix.pts[start*dim : end*dim]
+	q := s.q[:dim]
+	euclid := ix.norm == Euclidean
+	lo, span, wlo, wspan := s.lo, s.span, s.wlo, s.wspan
+points:
+	for c, j32 := range perm {
+		j := int(j32)
+		if uint(j-lo) >= span || uint(j-wlo) <= wspan {
 			continue
 		}
-		key := ix.key(q, ix.pts[p*dim:p*dim+dim])
-		if key > s.worstKey || (key == s.worstKey && j > s.worstIdx) {
+		row := pts[c*dim : c*dim+dim]
+		row = row[:len(q)]
+		worst := s.worstKey
+		var key float64
+		if euclid {
+			for d, v := range q {
+				t := v - row[d]
+				key += float64(t * t)
+				if key > worst {
+					continue points
+				}
+			}
+		} else {
+			for d, v := range q {
+				t := math.Abs(v - row[d])
+				if t > key {
+					if t > worst {
+						continue points
+					}
+					key = t
+				}
+			}
+		}
+		if key == worst && j > s.worstIdx {
 			continue
 		}
 		s.insert(cand{key, int32(j)})
@@ -319,9 +380,9 @@ func (s *Searcher) radius(id int32, rd float64) {
 		crd := rd
 		if off != old {
 			s.off[d] = off
-			crd = s.bound()
+			crd = s.childBound(rd, old, off)
 		}
-		if crd <= s.thresh {
+		if s.exactBound(crd, s.thresh) <= s.thresh {
 			s.radius(child, crd)
 		}
 		s.off[d] = old
