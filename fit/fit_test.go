@@ -163,6 +163,45 @@ func TestScalingRangeKnee(t *testing.T) {
 	}
 }
 
+func TestScalingRangePlateauRules(t *testing.T) {
+	// Exact: a steep straight stretch of 10 points (slope 2), a longer one (slope 1, 40 points)
+	// and a plateau of 50 points. The longer non-plateau stretch wins over the steep early one
+	// and over the longest piece, the plateau.
+	x := seq(100, 0, 1)
+	y := make([]float64, len(x))
+	for i := range x {
+		switch {
+		case i <= 10:
+			y[i] = 2 * x[i]
+		case i <= 50:
+			y[i] = 20 + (x[i] - 10)
+		default:
+			y[i] = 60
+		}
+	}
+	r, err := ScalingRange(x, y, RangeOptions{AbsTol: 1e-3})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if r.From != 10 || r.To != 50 || math.Abs(r.Line.Slope-1) > 1e-12 {
+		t.Errorf("range [%d, %d] slope %v, want [10, 50] slope 1", r.From, r.To, r.Line.Slope)
+	}
+	// With FlatRise 50 both rising stretches count as plateaus (they rise by 20 and 40), so the
+	// longest of all, the true plateau [50, 99], is returned.
+	r, err = ScalingRange(x, y, RangeOptions{AbsTol: 1e-3, FlatRise: 50})
+	if err != nil || r.From != 50 || r.To != 99 {
+		t.Errorf("FlatRise 50: range [%d, %d] (%v), want [50, 99]", r.From, r.To, err)
+	}
+	// A flat curve is an answer: its flat range is returned (slope 0).
+	for i := range y {
+		y[i] = 3
+	}
+	r, err = ScalingRange(x, y, RangeOptions{AbsTol: 1e-6})
+	if err != nil || r.From != 0 || r.To != 99 || r.Line.Slope != 0 {
+		t.Errorf("flat: range [%d, %d] slope %v (%v), want [0, 99] slope 0", r.From, r.To, r.Line.Slope, err)
+	}
+}
+
 func TestScalingRangeNone(t *testing.T) {
 	// An exponential has no linear range: neighbouring local slopes differ by the factor e,
 	// far beyond a 20 % tolerance (exact).
@@ -196,14 +235,19 @@ func TestScalingRangeOptions(t *testing.T) {
 	for i := range x {
 		y[i] = 2 * x[i]
 	}
-	// Exact: a -Inf (log 0) at point 10 splits the line; From/To restrict the search.
+	// Exact: a -Inf (log 0) at point 10 splits the line into [0, 9] and the longer [11, 49];
+	// From/To restrict the search.
 	y[10] = math.Inf(-1)
 	r, err := ScalingRange(x, y, RangeOptions{})
 	if err != nil {
 		t.Fatal(err)
 	}
-	if r.From != 0 || r.To != 9 {
-		t.Errorf("with -Inf at 10: range [%d, %d], want [0, 9]", r.From, r.To)
+	if r.From != 11 || r.To != 49 {
+		t.Errorf("with -Inf at 10: range [%d, %d], want [11, 49]", r.From, r.To)
+	}
+	r, err = ScalingRange(x, y, RangeOptions{To: 10})
+	if err != nil || r.From != 0 || r.To != 9 {
+		t.Errorf("To 10: range [%d, %d] (%v), want [0, 9]", r.From, r.To, err)
 	}
 	r, err = ScalingRange(x, y, RangeOptions{From: 15, To: 40})
 	if err != nil {

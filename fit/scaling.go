@@ -23,6 +23,11 @@ type RangeOptions struct {
 	MinPoints int
 	// From and To restrict the search to the points [From, To); To = 0 means all points.
 	From, To int
+	// FlatFraction and FlatRise define a plateau (see ScalingRange): a range whose median local
+	// slope is below FlatFraction times the steepest range's in magnitude, or whose fitted line
+	// rises (or falls) by less than FlatRise in y over the range. Defaults: FlatFraction 0.1,
+	// FlatRise 0 (no rise test).
+	FlatFraction, FlatRise float64
 }
 
 func (o RangeOptions) withDefaults(n int) (RangeOptions, error) {
@@ -38,9 +43,14 @@ func (o RangeOptions) withDefaults(n int) (RangeOptions, error) {
 	if o.To == 0 {
 		o.To = n
 	}
+	if o.FlatFraction == 0 {
+		o.FlatFraction = 0.1
+	}
 	switch {
 	case o.Window < 2:
 		return o, fmt.Errorf("fit: local-slope window %d must be at least 2 points", o.Window)
+	case o.FlatFraction < 0 || o.FlatRise < 0 || math.IsNaN(o.FlatFraction) || math.IsNaN(o.FlatRise):
+		return o, fmt.Errorf("fit: plateau thresholds %g (fraction) and %g (rise) must be non-negative", o.FlatFraction, o.FlatRise)
 	case o.RelTol < 0 || o.AbsTol < 0 || math.IsNaN(o.RelTol) || math.IsNaN(o.AbsTol):
 		return o, fmt.Errorf("fit: tolerances %g (relative) and %g (absolute) must be non-negative", o.RelTol, o.AbsTol)
 	case o.MinPoints < o.Window:
@@ -86,17 +96,19 @@ func LocalSlopes(x, y []float64, w int) []float64 {
 //     median m of those slopes: |s_k − m| ≤ RelTol·|m| + AbsTol.
 //  3. Maximal ranges. From every start a, the range grows one point at a time while it stays
 //     stable; the end where it stops is b(a). A range contained in an earlier one is dropped.
-//  4. Choice: the longest early range. Let [a₁, b₁] be the first (earliest) maximal range with
-//     at least MinPoints points. Among the maximal ranges that start inside it (a₁ ≤ a < b₁)
-//     the longest is chosen; ties go to the earlier start.
+//  4. Plateaus. A maximal range whose median local slope is smaller in magnitude than
+//     FlatFraction times the largest |median| of all maximal ranges, or whose fitted line rises
+//     or falls by less than FlatRise over the range, is a plateau (a saturated stretch).
+//  5. Choice: the longest range that is not a plateau (ties go to the earlier start); when every
+//     range is a plateau, the longest plateau.
 //
-// Step 4 makes the answer the first linear stretch of the curve, not merely its longest straight
-// piece: a divergence curve or a correlation sum that rises linearly and then saturates gives
-// the rising part even when the plateau is longer, and a few curved points at the start (a
-// transient) do not hide the linear stretch that follows them. A stable range ends at a knee:
-// the first window that straddles the knee has a slope between the two regimes and breaks the
-// tolerance. A transient that is itself straight over MinPoints or more points is a range in
-// its own right and comes first; skip it with From or a larger MinPoints.
+// Step 4 keeps the answer on the rising part of a curve that rises and then saturates (a
+// divergence curve, a correlation sum), even when the plateau is longer; a flat curve, whose
+// flatness is the answer (a zero exponent), still gives its flat range. Step 5 prefers the long
+// linear stretch to a short curved transient before it: a transient is straight only over a
+// few points, so it either fails MinPoints or loses on length. A range ends at a knee: the
+// first window that straddles the knee has a slope between the two regimes and breaks the
+// tolerance.
 //
 // The cost is O(n²) slope insertions for n points (fine for curves of up to a few thousand).
 //
@@ -159,16 +171,39 @@ func ScalingRange(x, y []float64, opt RangeOptions) (Range, error) {
 		return Range{}, fmt.Errorf("fit: %w: no run of at least %d points has local slopes (%d-point windows) within %g·|median| + %g of their median; the longest such run has %d points",
 			ErrNoRange, o.MinPoints, w, o.RelTol, o.AbsTol, bestRun)
 	}
-	first := cands[0]
-	best := first
-	for _, c := range cands[1:] {
-		if c.a >= first.b {
-			break
+	// Median slope and rise of every candidate, for the plateau test.
+	meds := make([]float64, len(cands))
+	steep := 0.0
+	for c, cd := range cands {
+		win := slices.Clone(s[cd.a : cd.b-w+2])
+		slices.Sort(win)
+		meds[c] = median(win)
+		steep = math.Max(steep, math.Abs(meds[c]))
+	}
+	flat := func(c int) bool {
+		cd := cands[c]
+		if math.Abs(meds[c]) < o.FlatFraction*steep {
+			return true
 		}
-		if c.b-c.a > best.b-best.a {
-			best = c
+		if o.FlatRise > 0 {
+			l, err := LeastSquares(x[o.From+cd.a:o.From+cd.b+1], y[o.From+cd.a:o.From+cd.b+1])
+			if err != nil || math.Abs(l.Slope*(x[o.From+cd.b]-x[o.From+cd.a])) < o.FlatRise {
+				return true
+			}
+		}
+		return false
+	}
+	bestIdx, bestFlat := -1, true
+	for c, cd := range cands {
+		f := flat(c)
+		switch {
+		case bestIdx < 0, bestFlat && !f:
+			bestIdx, bestFlat = c, f
+		case f == bestFlat && cd.b-cd.a > cands[bestIdx].b-cands[bestIdx].a:
+			bestIdx = c
 		}
 	}
+	best := cands[bestIdx]
 	from, to := best.a+o.From, best.b+o.From
 	line, err := LeastSquares(x[from:to+1], y[from:to+1])
 	if err != nil {
