@@ -183,13 +183,13 @@ func TestScalingRangePlateauRules(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if r.From != 10 || r.To != 50 || math.Abs(r.Line.Slope-1) > 1e-12 {
+	if r.From != 10 || r.To != 50 || math.Abs(r.Line.Slope-1) > 1e-12 || r.Plateau {
 		t.Errorf("range [%d, %d] slope %v, want [10, 50] slope 1", r.From, r.To, r.Line.Slope)
 	}
 	// With FlatRise 50 both rising stretches count as plateaus (they rise by 20 and 40), so the
 	// longest of all, the true plateau [50, 99], is returned.
 	r, err = ScalingRange(x, y, RangeOptions{AbsTol: 1e-3, FlatRise: 50})
-	if err != nil || r.From != 50 || r.To != 99 {
+	if err != nil || r.From != 50 || r.To != 99 || !r.Plateau {
 		t.Errorf("FlatRise 50: range [%d, %d] (%v), want [50, 99]", r.From, r.To, err)
 	}
 	// A flat curve is an answer: its flat range is returned (slope 0).

@@ -68,6 +68,9 @@ type Range struct {
 	Line     Line    // least-squares line over x[From:To+1], y[From:To+1]
 	Median   float64 // median of the local slopes inside the range
 	Spread   float64 // largest |local slope − Median| inside the range
+	// Plateau is true when every stable range of the curve was a plateau (step 4 of
+	// ScalingRange) and this is the longest of them.
+	Plateau bool
 }
 
 // LocalSlopes returns the least-squares slope of every window of w consecutive points:
@@ -213,7 +216,7 @@ func ScalingRange(x, y []float64, opt RangeOptions) (Range, error) {
 	slices.Sort(win)
 	med := median(win)
 	return Range{From: from, To: to, Line: line, Median: med,
-		Spread: math.Max(win[len(win)-1]-med, med-win[0])}, nil
+		Spread: math.Max(win[len(win)-1]-med, med-win[0]), Plateau: bestFlat}, nil
 }
 
 // stable reports whether every value of the sorted slice lies within relTol·|m| + absTol of its
