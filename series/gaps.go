@@ -30,22 +30,33 @@ type gapFiller struct {
 	last     float64
 }
 
+// push appends v, doubling the capacity when it is full (fewer bytes allocated over a long
+// read than append's gentler growth of large slices).
+func (g *gapFiller) push(v float64) {
+	if len(g.vals) == cap(g.vals) {
+		nv := make([]float64, len(g.vals), 2*cap(g.vals)+1024)
+		copy(nv, g.vals)
+		g.vals = nv
+	}
+	g.vals = append(g.vals, v)
+}
+
 // value appends a valid sample.
 func (g *gapFiller) value(v float64) {
 	if g.pending > 0 {
 		if g.haveLast {
 			step := (v - g.last) / float64(g.pending+1)
 			for k := 1; k <= g.pending; k++ {
-				g.vals = append(g.vals, g.last+step*float64(k))
+				g.push(g.last + step*float64(k))
 			}
 		} else {
 			for k := 0; k < g.pending; k++ {
-				g.vals = append(g.vals, v)
+				g.push(v)
 			}
 		}
 		g.pending = 0
 	}
-	g.vals = append(g.vals, v)
+	g.push(v)
 	g.last, g.haveLast = v, true
 }
 
@@ -61,7 +72,7 @@ func (g *gapFiller) gap() {
 func (g *gapFiller) finish() []float64 {
 	if g.pending > 0 && g.haveLast {
 		for k := 0; k < g.pending; k++ {
-			g.vals = append(g.vals, g.last)
+			g.push(g.last)
 		}
 	}
 	g.pending = 0

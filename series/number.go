@@ -16,6 +16,11 @@ import (
 // multiplication or division is correctly rounded and equals strconv.ParseFloat bit for bit.
 // Everything else goes to strconv.ParseFloat over the same bytes (no copy).
 func parseFloat(b []byte) (float64, bool) {
+	if len(b) > 18 {
+		// Full-precision output ('g' −1 writes up to 17 digits) rarely fits the fast path;
+		// skip the second scan.
+		return parseFloatSlow(b)
+	}
 	i := 0
 	neg := false
 	if i < len(b) && (b[i] == '+' || b[i] == '-') {
@@ -148,5 +153,5 @@ func stampQuantum(b []byte) float64 {
 			exp = -exp
 		}
 	}
-	return math.Pow(10, float64(exp-decimals))
+	return math.Pow10(exp - decimals)
 }
