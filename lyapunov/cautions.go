@@ -1,0 +1,98 @@
+package lyapunov
+
+import (
+	"fmt"
+	"math"
+)
+
+// cautions fills r.Cautions with the warning signs of a divergence estimate.
+func (r *Result) cautions(o Options) {
+	ch := &r.Curves[r.Chosen]
+	y := ch.MeanLog
+	// Too few points for the embedding: Eckmann & Ruelle (1992) argue that exponents from N
+	// points are trustworthy only when roughly log10 N exceeds the attractor dimension (from
+	// memory; the dimension is at most m, so m is the conservative stand-in).
+	if lg := math.Log10(float64(r.Vectors)); lg < float64(r.Dim) {
+		r.Cautions = append(r.Cautions, fmt.Sprintf(
+			"N = %d delay vectors may be too few for dimension %d: Eckmann & Ruelle (1992) argue that exponents from data need roughly log10 N > D (here log10 N = %.1f; D ≤ m)",
+			r.Vectors, r.Dim, lg))
+	}
+	// Saturation at the first step.
+	if len(y) > 1 && !math.IsNaN(y[0]) && !math.IsNaN(y[1]) {
+		top := math.Inf(-1)
+		for _, v := range y {
+			if !math.IsNaN(v) {
+				top = math.Max(top, v)
+			}
+		}
+		r.FirstStepRise, r.TotalRise = y[1]-y[0], top-y[0]
+		if r.TotalRise > 0 && r.FirstStepRise > 0.5*r.TotalRise {
+			r.Cautions = append(r.Cautions, fmt.Sprintf(
+				"the divergence curve saturates at the first step (%.2f of its total rise of %.2f nats happens between step 0 and 1): noise, or too large a lag, not deterministic divergence",
+				r.FirstStepRise, r.TotalRise))
+		}
+	}
+	if ch.FitErr == nil {
+		if ch.Fit.Plateau && r.AutoRange {
+			r.Cautions = append(r.Cautions, fmt.Sprintf(
+				"no stable stretch of the divergence curve raises the separation by a factor e: the separation stays bounded over the %d steps (periodic or quasiperiodic motion, or noise), so the slope is the mean growth over steps %d…%d and is expected near 0",
+				r.Horizon, r.From, r.To))
+		}
+		if n := r.To - r.From; n < 4 {
+			r.Cautions = append(r.Cautions, fmt.Sprintf(
+				"the fit range spans only %d steps (%d…%d): the slope is poorly determined", n, r.From, r.To))
+		}
+		if r.Bootstrap.Reps > 0 && r.IntervalPerSample[0] <= 0 && r.LambdaPerSample > 0 {
+			r.Cautions = append(r.Cautions, fmt.Sprintf(
+				"the exponent is not significantly positive: the %.0f%% interval [%.4g, %.4g] per sample includes 0",
+				100*r.Level, r.IntervalPerSample[0], r.IntervalPerSample[1]))
+		}
+	}
+	if r.Method == Kantz && len(r.Curves) > 1 {
+		r.epsCautions()
+	}
+}
+
+// epsCautions warns when the Kantz curves depend on ε: their slopes differ by more than 25 %
+// of the median (or some ε has no linear range while others do), or the curves for different ε
+// merge within the first step, i.e. the initial neighbourhood size is forgotten at once (noise;
+// deterministic curves stay nearly parallel over their linear range; common practice after
+// Kantz 1994).
+func (r *Result) epsCautions() {
+	lo, hi := math.Inf(1), math.Inf(-1)
+	n, missing := 0, 0
+	for _, s := range r.EpsSlopes {
+		if math.IsNaN(s) {
+			missing++
+			continue
+		}
+		n++
+		lo, hi = math.Min(lo, s), math.Max(hi, s)
+	}
+	med := r.LambdaPerSample
+	switch {
+	case n >= 2 && hi-lo > 0.25*math.Abs(med)+1e-12:
+		r.Cautions = append(r.Cautions, fmt.Sprintf(
+			"the slope depends strongly on ε: from %.4g to %.4g per sample over ε = %.3g … %.3g (noise or a poorly resolved attractor)",
+			lo, hi, r.Curves[0].Eps, r.Curves[len(r.Curves)-1].Eps))
+	case n >= 1 && missing > 0:
+		r.Cautions = append(r.Cautions, fmt.Sprintf(
+			"the slope depends strongly on ε: %d of the %d radii give no linear range", missing, len(r.Curves)))
+	}
+	// Spread of S over ε at steps 0 and 1.
+	spread := func(k int) float64 {
+		a, b := math.Inf(1), math.Inf(-1)
+		for _, c := range r.Curves {
+			if k < len(c.MeanLog) && !math.IsNaN(c.MeanLog[k]) {
+				a, b = math.Min(a, c.MeanLog[k]), math.Max(b, c.MeanLog[k])
+			}
+		}
+		return b - a
+	}
+	s0, s1 := spread(0), spread(1)
+	if s0 > 0 && s1 < 0.5*s0 {
+		r.Cautions = append(r.Cautions, fmt.Sprintf(
+			"the divergence depends strongly on ε: the curves for different ε merge within the first step (their spread falls from %.2f to %.2f nats), as for noise",
+			s0, s1))
+	}
+}

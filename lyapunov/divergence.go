@@ -1,0 +1,671 @@
+package lyapunov
+
+import (
+	"errors"
+	"fmt"
+	"math"
+	"math/rand/v2"
+	"runtime"
+	"slices"
+	"sync"
+	"sync/atomic"
+
+	"unfold/fit"
+	"unfold/neighbors"
+)
+
+// Method selects the divergence curve.
+type Method int
+
+const (
+	// Kantz is the curve of Kantz (1994): for every reference point, the logarithm of the mean
+	// distance, Δn steps later, to all its neighbours within ε (outside the Theiler window),
+	// averaged over the reference points; one curve per ε. It is the zero value (the default).
+	Kantz Method = iota
+	// Rosenstein is the curve of Rosenstein, Collins & De Luca (1993): for every reference
+	// point, the logarithm of the distance, Δn steps later, to its nearest neighbour outside the
+	// Theiler window, averaged over the reference points.
+	Rosenstein
+)
+
+// String returns "kantz" or "rosenstein".
+func (m Method) String() string {
+	switch m {
+	case Kantz:
+		return "kantz"
+	case Rosenstein:
+		return "rosenstein"
+	}
+	return fmt.Sprintf("Method(%d)", int(m))
+}
+
+// ParseMethod returns the Method named s ("kantz" or "rosenstein").
+func ParseMethod(s string) (Method, error) {
+	switch s {
+	case "kantz":
+		return Kantz, nil
+	case "rosenstein":
+		return Rosenstein, nil
+	}
+	return 0, fmt.Errorf("lyapunov: unknown method %q (want kantz or rosenstein)", s)
+}
+
+// Options set the embedding, the curve and the fit of Divergence. Lag and Dim are required;
+// every other zero value selects the default stated beside the field.
+type Options struct {
+	Lag, Dim int // delay (samples, ≥ 1) and embedding dimension (≥ 1)
+	// Theiler excludes temporal neighbours |i−j| ≤ Theiler (samples); 0 excludes only the point
+	// itself. Flows need at least their autocorrelation time (embed.DefaultTheiler).
+	Theiler int
+	Method  Method
+	// Norm is the distance between delay vectors (neighbors.Euclidean is the zero value).
+	Norm neighbors.Norm
+	// Horizon is the number of steps each pair is followed (default DefaultHorizon).
+	Horizon int
+	// Eps are the Kantz neighbourhood radii in signal units (sorted ascending; default
+	// DefaultEps). Ignored by Rosenstein.
+	Eps []float64
+	// MaxNeighbors caps the Kantz neighbourhood: at most this many nearest neighbours within ε
+	// are averaged (default 32), which bounds the work per reference point.
+	MaxNeighbors int
+	// Dt is the sampling interval in time units (default 1).
+	Dt float64
+	// Blocks is the number of contiguous blocks of reference points whose sums are kept for the
+	// bootstrap (default 100; at most one block per 4 reference points).
+	Blocks int
+	// Reps is the number of bootstrap resamples (default 500); Level the interval's coverage
+	// (default 0.95); Seed seeds the resampling.
+	Reps  int
+	Level float64
+	Seed  uint64
+	// FitFrom and FitTo override the automatic fit range (steps, both included) when FitTo > 0.
+	FitFrom, FitTo int
+	// Range tunes the automatic range (package fit); zero fields take the defaults of
+	// DefaultRangeOptions.
+	Range fit.RangeOptions
+	// Threads is the number of goroutines (0 = all cores); Progress, when not nil, is called
+	// with (reference points done, total).
+	Threads  int
+	Progress func(done, total int)
+}
+
+// DefaultHorizon returns the default number of steps followed: 10·lag·(dim−1) clamped to
+// [30, 500] (common practice: several embedding windows, enough for a map's curve to saturate
+// and for a flow's to show a few Lyapunov times at usual sampling).
+func DefaultHorizon(lag, dim int) int {
+	return min(max(10*lag*max(dim-1, 1), 30), 500)
+}
+
+// DefaultRangeOptions returns the automatic-range criterion for a divergence curve of
+// horizon+1 points whose total rise is rise (nats): local slopes over windows of
+// max(3, horizon/25) steps, within 20 % of their median plus 5 % of the curve's mean slope
+// rise/horizon, over at least max(window+2, 5) points; a range that raises the separation by
+// less than a factor e (1 nat) counts as a plateau (fit.RangeOptions.FlatRise), because a
+// bounded, oscillating separation (periodic or quasiperiodic motion) can look straight over a
+// few steps, but exponential divergence is read over at least one e-folding (common practice).
+func DefaultRangeOptions(horizon int, rise float64) fit.RangeOptions {
+	w := max(3, horizon/25)
+	return fit.RangeOptions{Window: w, RelTol: 0.2, AbsTol: 0.05 * math.Abs(rise) / float64(horizon),
+		MinPoints: max(w+2, 5), FlatRise: 1}
+}
+
+// Curve is one divergence curve: S(k), k = 0 … Horizon.
+type Curve struct {
+	Eps     float64   // Kantz radius (signal units); 0 for Rosenstein
+	MeanLog []float64 // S(k) in nats; NaN where no pair contributed
+	Pairs   []int64   // reference points contributing at step k
+	// References is the number of reference points with at least one neighbour.
+	References int
+	// Fit is the linear range and line; FitErr says why there is none (wraps fit.ErrNoRange).
+	Fit    fit.Range
+	FitErr error
+}
+
+// Result is the largest Lyapunov exponent read from a divergence curve.
+type Result struct {
+	Method                      Method
+	Lag, Dim, Theiler, Horizon  int
+	Dt                          float64
+	Norm                        neighbors.Norm
+	Vectors, ReferencePoints    int // delay vectors; reference points queried
+	Blocks, Reps, MaxNeighbors  int
+	Level                       float64
+	Seed                        uint64
+	Curves                      []Curve // one (Rosenstein) or one per ε (Kantz)
+	Chosen                      int     // index of the curve the answer is read from
+	From, To                    int     // fit range (steps, both included)
+	AutoRange                   bool    // the range was found automatically
+	LambdaPerSample, Lambda     float64 // slope in nats per step and per time unit
+	IntervalPerSample, Interval [2]float64
+	Bootstrap                   fit.Interval
+	EpsSlopes                   []float64 // Kantz: the slope of every curve (NaN when it has no range)
+	Cautions                    []string
+	RangeOptions                fit.RangeOptions // the criterion used for the chosen curve
+	FirstStepRise, TotalRise    float64          // S(1)−S(0) and max S − S(0) of the chosen curve
+}
+
+// Divergence computes the divergence curves of x, finds the linear range of each, and reads
+// the largest Lyapunov exponent from it with a bootstrap interval.
+//
+// Delay vectors v_i = (x_i, x_{i+τ}, …) are indexed with package neighbors. Reference points
+// and their neighbours are the vectors i < N_v − Horizon, so every pair can be followed for the
+// whole horizon. Rosenstein: the nearest neighbour j of i with |i−j| > Theiler, and
+// S(k) = ⟨ln ‖v_{i+k} − v_{j+k}‖⟩_i. Kantz: the neighbours U_i(ε) within ε (at most
+// MaxNeighbors nearest), and S_ε(k) = ⟨ln (mean_{j∈U_i} ‖v_{i+k} − v_{j+k}‖)⟩_i. Zero distances
+// (repeated values) are left out of the logarithm.
+//
+// Memory: the curves are not kept per reference point. The reference points are split into
+// Blocks contiguous blocks and the sums of the logarithms and their counts are accumulated per
+// block, so memory is O(N·m) for the index plus O(Blocks·Horizon·len(Eps)). Each block is
+// summed by one goroutine in index order, so the result is identical for any thread count.
+//
+// The interval is a moving-block bootstrap over reference points (Künsch 1989, "The jackknife
+// and the bootstrap for general stationary observations", Annals of Statistics 17, 1217): the
+// blocks are resampled with replacement, the mean curve recomputed, and the slope refitted
+// over the same range; the percentiles go through Level. Blocks of neighbouring reference
+// points, not single points, are resampled because consecutive reference points share their
+// neighbourhoods and are not independent. The range itself is held fixed.
+//
+// For Kantz the answer is the curve whose slope is the median of the slopes of the curves that
+// have a linear range (the lower middle one for an even count); the spread of the slopes over
+// ε is a caution.
+//
+// When no curve has a linear range, Divergence returns the result with its curves (so that they
+// can still be written and drawn) and an error wrapping fit.ErrNoRange that says why.
+func Divergence(x []float64, opt Options) (*Result, error) {
+	o, err := opt.check(len(x))
+	if err != nil {
+		return nil, err
+	}
+	ix, err := neighbors.FromEmbedding(x, o.Lag, o.Dim, o.Norm)
+	if err != nil {
+		return nil, fmt.Errorf("lyapunov: %w", err)
+	}
+	nv := ix.Len()
+	nref := nv - o.Horizon
+	if o.Method == Kantz && len(o.Eps) == 0 {
+		o.Eps = DefaultEps(ix, nref, o.Theiler)
+	}
+	r := &Result{Method: o.Method, Lag: o.Lag, Dim: o.Dim, Theiler: o.Theiler, Horizon: o.Horizon,
+		Dt: o.Dt, Norm: o.Norm, Vectors: nv, ReferencePoints: nref, Blocks: o.Blocks, Reps: o.Reps,
+		MaxNeighbors: o.MaxNeighbors, Level: o.Level, Seed: o.Seed}
+	if o.Method == Rosenstein {
+		r.MaxNeighbors = 1
+	}
+	acc := o.accumulate(x, ix, nref)
+	ne := acc.ne
+	r.Curves = make([]Curve, ne)
+	for e := range ne {
+		c := &r.Curves[e]
+		if o.Method == Kantz {
+			c.Eps = o.Eps[e]
+		}
+		c.References = acc.refs[e]
+		c.MeanLog, c.Pairs = acc.mean(e, nil)
+		c.Fit, c.FitErr = o.fitCurve(c.MeanLog)
+	}
+	// Choose the curve.
+	var ok []int
+	for e := range r.Curves {
+		if r.Curves[e].FitErr == nil {
+			ok = append(ok, e)
+		}
+	}
+	if o.Method == Kantz {
+		r.EpsSlopes = make([]float64, ne)
+		for e := range r.Curves {
+			r.EpsSlopes[e] = math.NaN()
+			if r.Curves[e].FitErr == nil {
+				r.EpsSlopes[e] = r.Curves[e].Fit.Line.Slope
+			}
+		}
+	}
+	if len(ok) == 0 {
+		r.Chosen = 0
+		for e := range r.Curves { // the curve with the most reference points, for drawing
+			if r.Curves[e].References > r.Curves[r.Chosen].References {
+				r.Chosen = e
+			}
+		}
+		r.cautions(o)
+		return r, fmt.Errorf("lyapunov: %w", r.Curves[r.Chosen].FitErr)
+	}
+	slices.SortStableFunc(ok, func(a, b int) int {
+		return cmpFloat(r.Curves[a].Fit.Line.Slope, r.Curves[b].Fit.Line.Slope)
+	})
+	r.Chosen = ok[(len(ok)-1)/2]
+	ch := &r.Curves[r.Chosen]
+	r.From, r.To, r.AutoRange = ch.Fit.From, ch.Fit.To, o.FitTo == 0
+	r.RangeOptions = o.rangeOptions(ch.MeanLog)
+	r.LambdaPerSample = ch.Fit.Line.Slope
+	r.Lambda = r.LambdaPerSample / o.Dt
+
+	// Block bootstrap of the slope over the fixed range.
+	rng := rand.New(rand.NewPCG(o.Seed, 0x6c79617075)) // second word: a fixed stream id
+	steps := make([]float64, r.To-r.From+1)
+	for k := range steps {
+		steps[k] = float64(r.From + k)
+	}
+	ys := make([]float64, len(steps))
+	sum := make([]float64, len(steps))
+	cnt := make([]float64, len(steps))
+	nb := acc.blocks
+	iv, err := fit.Bootstrap(rng, nb, o.Reps, o.Level, func(idx []int) float64 {
+		clear(sum)
+		clear(cnt)
+		for _, b := range idx {
+			s, c := acc.block(r.Chosen, b)
+			for k := range ys {
+				sum[k] += s[r.From+k]
+				cnt[k] += float64(c[r.From+k])
+			}
+		}
+		for k := range ys {
+			if cnt[k] == 0 {
+				return math.NaN()
+			}
+			ys[k] = sum[k] / cnt[k]
+		}
+		l, err := fit.LeastSquares(steps, ys)
+		if err != nil {
+			return math.NaN()
+		}
+		return l.Slope
+	})
+	if err != nil {
+		return nil, fmt.Errorf("lyapunov: interval: %w", err)
+	}
+	r.Bootstrap = iv
+	r.IntervalPerSample = [2]float64{iv.Lo, iv.Hi}
+	r.Interval = [2]float64{iv.Lo / o.Dt, iv.Hi / o.Dt}
+	r.cautions(o)
+	return r, nil
+}
+
+func cmpFloat(a, b float64) int {
+	switch {
+	case a < b:
+		return -1
+	case a > b:
+		return 1
+	}
+	return 0
+}
+
+// check validates the options against a record of n samples and fills in the defaults.
+func (o Options) check(n int) (Options, error) {
+	if o.Lag < 1 || o.Dim < 1 {
+		return o, fmt.Errorf("lyapunov: lag %d and dimension %d must be at least 1", o.Lag, o.Dim)
+	}
+	if o.Theiler < 0 {
+		return o, fmt.Errorf("lyapunov: Theiler window %d must not be negative", o.Theiler)
+	}
+	if o.Method != Kantz && o.Method != Rosenstein {
+		return o, fmt.Errorf("lyapunov: unknown method %d", int(o.Method))
+	}
+	if o.Horizon == 0 {
+		o.Horizon = DefaultHorizon(o.Lag, o.Dim)
+	}
+	if o.Horizon < 2 {
+		return o, fmt.Errorf("lyapunov: horizon %d must be at least 2 steps", o.Horizon)
+	}
+	if o.Dt == 0 {
+		o.Dt = 1
+	}
+	if !(o.Dt > 0) || math.IsInf(o.Dt, 0) {
+		return o, fmt.Errorf("lyapunov: sampling interval %g must be positive", o.Dt)
+	}
+	if o.MaxNeighbors == 0 {
+		o.MaxNeighbors = 32
+	}
+	if o.MaxNeighbors < 1 {
+		return o, fmt.Errorf("lyapunov: at most %d neighbours: must be at least 1", o.MaxNeighbors)
+	}
+	if o.Blocks == 0 {
+		o.Blocks = 100
+	}
+	if o.Reps == 0 {
+		o.Reps = 500
+	}
+	if o.Level == 0 {
+		o.Level = 0.95
+	}
+	if o.Blocks < 2 || o.Reps < 2 || !(o.Level > 0 && o.Level < 1) {
+		return o, fmt.Errorf("lyapunov: bootstrap needs at least 2 blocks and 2 resamples and a level in (0, 1), got %d, %d, %g", o.Blocks, o.Reps, o.Level)
+	}
+	for i, e := range o.Eps {
+		if !(e > 0) || math.IsInf(e, 0) {
+			return o, fmt.Errorf("lyapunov: radius ε = %g must be positive", e)
+		}
+		if i > 0 && e <= o.Eps[i-1] {
+			return o, fmt.Errorf("lyapunov: radii ε must be strictly ascending (%g after %g)", e, o.Eps[i-1])
+		}
+	}
+	nv := n - (o.Dim-1)*o.Lag
+	nref := nv - o.Horizon
+	if need := 2*o.Theiler + 2 + 8; nref < need || nref < 8 {
+		return o, fmt.Errorf("lyapunov: %d samples give %d reference points with lag %d, dimension %d and horizon %d; need at least %d (Theiler window %d): record too short",
+			n, max(nref, 0), o.Lag, o.Dim, o.Horizon, max(need, 8), o.Theiler)
+	}
+	if o.FitTo > 0 && (o.FitFrom < 0 || o.FitFrom >= o.FitTo || o.FitTo > o.Horizon) {
+		return o, fmt.Errorf("lyapunov: fit range %d…%d must satisfy 0 ≤ from < to ≤ horizon %d", o.FitFrom, o.FitTo, o.Horizon)
+	}
+	o.Blocks = max(min(o.Blocks, nref/4), 2)
+	return o, nil
+}
+
+// rangeOptions returns the fit criterion for curve y: DefaultRangeOptions overridden by the
+// non-zero fields of o.Range.
+func (o Options) rangeOptions(y []float64) fit.RangeOptions {
+	lo, hi := math.Inf(1), math.Inf(-1)
+	for _, v := range y {
+		if !math.IsNaN(v) {
+			lo, hi = math.Min(lo, v), math.Max(hi, v)
+		}
+	}
+	rise := 0.0
+	if hi > lo {
+		rise = hi - lo
+	}
+	d := DefaultRangeOptions(o.Horizon, rise)
+	if o.Range.Window != 0 {
+		d.Window = o.Range.Window
+		if o.Range.MinPoints == 0 {
+			d.MinPoints = max(d.Window+2, 5)
+		}
+	}
+	if o.Range.RelTol != 0 {
+		d.RelTol = o.Range.RelTol
+	}
+	if o.Range.AbsTol != 0 {
+		d.AbsTol = o.Range.AbsTol
+	}
+	if o.Range.MinPoints != 0 {
+		d.MinPoints = o.Range.MinPoints
+	}
+	if o.Range.FlatFraction != 0 {
+		d.FlatFraction = o.Range.FlatFraction
+	}
+	if o.Range.FlatRise != 0 {
+		d.FlatRise = o.Range.FlatRise
+	}
+	d.From, d.To = o.Range.From, o.Range.To
+	return d
+}
+
+// fitCurve fits the line over the given or the automatic range.
+func (o Options) fitCurve(y []float64) (fit.Range, error) {
+	steps := make([]float64, len(y))
+	for k := range steps {
+		steps[k] = float64(k)
+	}
+	if o.FitTo > 0 {
+		for k := o.FitFrom; k <= o.FitTo; k++ {
+			if math.IsNaN(y[k]) {
+				return fit.Range{}, fmt.Errorf("%w: no pair contributes at step %d of the given fit range", fit.ErrNoRange, k)
+			}
+		}
+		l, err := fit.LeastSquares(steps[o.FitFrom:o.FitTo+1], y[o.FitFrom:o.FitTo+1])
+		if err != nil {
+			return fit.Range{}, err
+		}
+		return fit.Range{From: o.FitFrom, To: o.FitTo, Line: l, Median: l.Slope}, nil
+	}
+	rg, err := fit.ScalingRange(steps, y, o.rangeOptions(y))
+	if err != nil {
+		if errors.Is(err, fit.ErrNoRange) {
+			return fit.Range{}, fmt.Errorf("divergence curve: %w", err)
+		}
+		return fit.Range{}, err
+	}
+	if rg.Plateau && o.Horizon >= 3 {
+		// No stable range raises the separation by a factor e: the curve is bounded over the
+		// horizon. Its mean growth rate is read over the whole horizon after the first step.
+		for k := 1; k <= o.Horizon; k++ {
+			if math.IsNaN(y[k]) {
+				return rg, nil
+			}
+		}
+		l, err := fit.LeastSquares(steps[1:], y[1:])
+		if err != nil {
+			return fit.Range{}, err
+		}
+		return fit.Range{From: 1, To: o.Horizon, Line: l, Median: l.Slope, Plateau: true}, nil
+	}
+	return rg, nil
+}
+
+// DefaultEps returns the default Kantz radii for an index: 2, 4, 8 and 16 times the median
+// distance from a reference point to its nearest neighbour outside the Theiler window (over up
+// to 1000 evenly spaced reference points among the first nref). Common practice: ε small
+// against the attractor but holding several neighbours, over a factor of 8 to see whether the
+// slope depends on ε.
+func DefaultEps(ix *neighbors.Index, nref, theiler int) []float64 {
+	s := ix.NewSearcher()
+	step := max(nref/1000, 1)
+	var d []float64
+	var buf []neighbors.Neighbor
+	for i := 0; i < nref; i += step {
+		buf = s.KNN(ix.Coords(i), 1, neighbors.Query{Self: i, Theiler: theiler, Hi: nref}, buf)
+		if len(buf) > 0 && buf[0].Dist > 0 {
+			d = append(d, buf[0].Dist)
+		}
+	}
+	if len(d) == 0 {
+		return []float64{1, 2, 4, 8}
+	}
+	slices.Sort(d)
+	m := fit.Quantile(d, 0.5)
+	return []float64{2 * m, 4 * m, 8 * m, 16 * m}
+}
+
+// sums holds the per-block sums: for curve e, block b and step k, sum of logarithms and counts.
+type sums struct {
+	ne, blocks, h1 int
+	sum            []float64
+	cnt            []int64
+	refs           []int // reference points with a neighbour, per curve
+}
+
+func (a *sums) block(e, b int) ([]float64, []int64) {
+	off := (e*a.blocks + b) * a.h1
+	return a.sum[off : off+a.h1], a.cnt[off : off+a.h1]
+}
+
+// mean returns the mean curve of e over the blocks listed (nil: all).
+func (a *sums) mean(e int, blocks []int) ([]float64, []int64) {
+	s := make([]float64, a.h1)
+	c := make([]int64, a.h1)
+	add := func(b int) {
+		bs, bc := a.block(e, b)
+		for k := range s {
+			s[k] += bs[k]
+			c[k] += bc[k]
+		}
+	}
+	if blocks == nil {
+		for b := range a.blocks {
+			add(b)
+		}
+	} else {
+		for _, b := range blocks {
+			add(b)
+		}
+	}
+	for k := range s {
+		if c[k] > 0 {
+			s[k] /= float64(c[k])
+		} else {
+			s[k] = math.NaN()
+		}
+	}
+	return s, c
+}
+
+// accumulate runs the neighbour searches and fills the per-block sums.
+func (o Options) accumulate(x []float64, ix *neighbors.Index, nref int) *sums {
+	ne := 1
+	if o.Method == Kantz {
+		ne = len(o.Eps)
+	}
+	h1 := o.Horizon + 1
+	a := &sums{ne: ne, blocks: o.Blocks, h1: h1,
+		sum: make([]float64, ne*o.Blocks*h1), cnt: make([]int64, ne*o.Blocks*h1)}
+	refs := make([]int64, ne*o.Blocks)
+	threads := o.Threads
+	if threads <= 0 {
+		threads = runtimeThreads()
+	}
+	threads = min(threads, o.Blocks)
+	var next atomic.Int64
+	var mu sync.Mutex
+	done := 0
+	var wg sync.WaitGroup
+	for range threads {
+		wg.Go(func() {
+			w := newWorker(o, x, ix, nref, ne)
+			for {
+				b := int(next.Add(1) - 1)
+				if b >= o.Blocks {
+					return
+				}
+				lo, hi := b*nref/o.Blocks, (b+1)*nref/o.Blocks
+				for e := range ne {
+					s, c := a.block(e, b)
+					w.sum[e], w.cnt[e] = s, c
+				}
+				for i := lo; i < hi; i++ {
+					w.reference(i)
+				}
+				for e := range ne {
+					refs[e*o.Blocks+b] = w.refs[e]
+					w.refs[e] = 0
+				}
+				if o.Progress != nil {
+					mu.Lock()
+					done += hi - lo
+					o.Progress(done, nref)
+					mu.Unlock()
+				}
+			}
+		})
+	}
+	wg.Wait()
+	a.refs = make([]int, ne)
+	for e := range ne {
+		for b := range o.Blocks {
+			a.refs[e] += int(refs[e*o.Blocks+b])
+		}
+	}
+	return a
+}
+
+// worker holds one goroutine's searcher and scratch space.
+type worker struct {
+	o        Options
+	x        []float64
+	ix       *neighbors.Index
+	s        *neighbors.Searcher
+	nref     int
+	buf      []neighbors.Neighbor
+	counts   []int       // Kantz: neighbours within each ε
+	sum      [][]float64 // per curve: the current block's sums
+	cnt      [][]int64
+	refs     []int64
+	euclid   bool
+	lag, dim int
+}
+
+func newWorker(o Options, x []float64, ix *neighbors.Index, nref, ne int) *worker {
+	return &worker{o: o, x: x, ix: ix, s: ix.NewSearcher(), nref: nref,
+		counts: make([]int, ne), sum: make([][]float64, ne), cnt: make([][]int64, ne),
+		refs: make([]int64, ne), euclid: o.Norm == neighbors.Euclidean, lag: o.Lag, dim: o.Dim}
+}
+
+// key returns the squared Euclidean distance or the maximum-norm distance between delay
+// vectors i and j, read from the record.
+func (w *worker) key(i, j int) float64 {
+	x, lag := w.x, w.lag
+	var s float64
+	if w.euclid {
+		for c := range w.dim {
+			t := x[i+c*lag] - x[j+c*lag]
+			s += t * t
+		}
+		return s
+	}
+	for c := range w.dim {
+		s = math.Max(s, math.Abs(x[i+c*lag]-x[j+c*lag]))
+	}
+	return s
+}
+
+// logDist returns ln of the distance with key k.
+func (w *worker) logDist(k float64) float64 {
+	if w.euclid {
+		return 0.5 * math.Log(k)
+	}
+	return math.Log(k)
+}
+
+// reference adds the contribution of reference point i to the current block.
+func (w *worker) reference(i int) {
+	o := w.o
+	q := neighbors.Query{Self: i, Theiler: o.Theiler, Hi: w.nref}
+	if o.Method == Rosenstein {
+		w.buf = w.s.KNN(w.ix.Coords(i), 1, q, w.buf)
+		if len(w.buf) == 0 {
+			return
+		}
+		j := w.buf[0].Index
+		w.refs[0]++
+		s, c := w.sum[0], w.cnt[0]
+		for k := range s {
+			if d := w.key(i+k, j+k); d > 0 {
+				s[k] += w.logDist(d)
+				c[k]++
+			}
+		}
+		return
+	}
+	w.buf = w.s.KNN(w.ix.Coords(i), o.MaxNeighbors, q, w.buf)
+	nmax := 0
+	for e, eps := range o.Eps {
+		c := 0
+		for c < len(w.buf) && w.buf[c].Dist <= eps {
+			c++
+		}
+		w.counts[e] = c
+		nmax = c
+		if c > 0 {
+			w.refs[e]++
+		}
+	}
+	if nmax == 0 {
+		return
+	}
+	e0 := 0
+	for w.counts[e0] == 0 {
+		e0++
+	}
+	for k := 0; k <= o.Horizon; k++ {
+		var acc float64
+		e := e0
+		for t := 0; t < nmax; t++ {
+			d := w.key(i+k, w.buf[t].Index+k)
+			if w.euclid {
+				d = math.Sqrt(d)
+			}
+			acc += d
+			for e < len(w.counts) && w.counts[e] == t+1 {
+				if acc > 0 {
+					w.sum[e][k] += math.Log(acc / float64(t+1))
+					w.cnt[e][k]++
+				}
+				e++
+			}
+		}
+	}
+}
+
+func runtimeThreads() int { return runtime.GOMAXPROCS(0) }
