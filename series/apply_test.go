@@ -171,3 +171,24 @@ func TestAtomicFile(t *testing.T) {
 		t.Error("WriteCSV accepted columns of different lengths")
 	}
 }
+
+func TestWriteNpyRoundTrip(t *testing.T) {
+	var b bytes.Buffer
+	if err := WriteNpy(&b, 3, 2, []float64{1, 10, 2, 20, 3, 30}); err != nil {
+		t.Fatal(err)
+	}
+	s, err := Read(bytes.NewReader(b.Bytes()), "v.npy", ReadOptions{Column: "2"})
+	if err != nil || !sameFloats(s.Values, []float64{10, 20, 30}) {
+		t.Errorf("read back %v, %v", s, err)
+	}
+	b.Reset()
+	if err := WriteNpy(&b, 2, 0, []float64{5, 6}); err != nil {
+		t.Fatal(err)
+	}
+	if s, err := Read(bytes.NewReader(b.Bytes()), "v.npy", ReadOptions{}); err != nil || !sameFloats(s.Values, []float64{5, 6}) {
+		t.Errorf("1-D read back %v, %v", s, err)
+	}
+	if WriteNpy(&b, 2, 2, []float64{1}) == nil {
+		t.Error("WriteNpy accepted a wrong length")
+	}
+}

@@ -3,6 +3,7 @@ package series
 import (
 	"bytes"
 	"math"
+	"os"
 	"runtime"
 	"strconv"
 	"testing"
@@ -94,3 +95,27 @@ func TestReadTextBoundedAllocation(t *testing.T) {
 }
 
 func bytesReader(b []byte) *bytes.Reader { return bytes.NewReader(b) }
+
+// TestReadBigFile reads the file named by $UNFOLD_BIG_FILE (skipped when unset) and logs the
+// samples and the bytes allocated, to check by hand that a 10^7-row file reads in memory
+// proportional to the values only:
+//
+//	awk 'BEGIN{print "t,x"; for(i=0;i<1e7;i++) printf "%.3f,%.9f\n", i*0.001, sin(i*0.01)}' >/tmp/big.csv
+//	UNFOLD_BIG_FILE=/tmp/big.csv go test ./series -run BigFile -v
+func TestReadBigFile(t *testing.T) {
+	path := os.Getenv("UNFOLD_BIG_FILE")
+	if path == "" {
+		t.Skip("set UNFOLD_BIG_FILE to a large text file")
+	}
+	var m0, m1 runtime.MemStats
+	runtime.GC()
+	runtime.ReadMemStats(&m0)
+	s, src, err := ReadFile(path, nil, ReadOptions{})
+	runtime.ReadMemStats(&m1)
+	if err != nil {
+		t.Fatal(err)
+	}
+	t.Logf("%d samples, dt %v, from %d bytes; allocated %d bytes (%.1f per sample) in %d allocations; heap in use %d MB",
+		s.Len(), s.Dt, src.Bytes, m1.TotalAlloc-m0.TotalAlloc, float64(m1.TotalAlloc-m0.TotalAlloc)/float64(s.Len()),
+		m1.Mallocs-m0.Mallocs, m1.HeapInuse>>20)
+}

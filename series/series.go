@@ -47,7 +47,9 @@ func (s *Series) Duration() float64 {
 func (s *Series) Time(i int) float64 { return s.T0 + float64(i)*s.Dt }
 
 // InputError is bad input: it says what is wrong and where. Line and Column are 1-based and 0
-// when they do not apply. Commands exit with status 2 on an InputError.
+// when they do not apply; for delimited text Column is the byte position in the line where
+// the offending cell starts (its opening quote, if quoted). Commands exit with status 2 on an
+// InputError.
 type InputError struct {
 	Path   string // file name as given ("-" for standard input)
 	Line   int

@@ -9,6 +9,9 @@ import (
 	"path/filepath"
 	"strconv"
 	"strings"
+
+	"codeberg.org/sbinet/npyio/npy"
+	"gonum.org/v1/gonum/mat"
 )
 
 // AtomicFile is an output written to a temporary file in the target's directory and renamed
@@ -176,4 +179,19 @@ func WriteCSV(w io.Writer, header []string, cols ...[]float64) error {
 		return fmt.Errorf("write csv: %w", err)
 	}
 	return nil
+}
+
+// WriteNpy writes data, rows×cols values in row-major order, as a 2-D float64 NumPy .npy
+// array (a 1-D array when cols is 0) with codeberg.org/sbinet/npyio.
+func WriteNpy(w io.Writer, rows, cols int, data []float64) error {
+	if cols == 0 {
+		if len(data) != rows {
+			return fmt.Errorf("write npy: %d values for %d rows", len(data), rows)
+		}
+		return npy.Write(w, data)
+	}
+	if rows <= 0 || cols < 0 || len(data) != rows*cols {
+		return fmt.Errorf("write npy: %d values for %d×%d", len(data), rows, cols)
+	}
+	return npy.Write(w, mat.NewDense(rows, cols, data))
 }
