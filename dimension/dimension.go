@@ -1,0 +1,328 @@
+// Package dimension estimates the correlation dimension D2 of a reconstructed attractor: the
+// correlation sums C(r) for embedding dimensions m = 1…M at log-spaced radii with a Theiler
+// window, their local slopes d log C / d log r, D2 read from the scaling range that package fit
+// finds (with a bootstrap interval), whether D2 saturates as m grows, and the Takens
+// maximum-likelihood estimate as a second opinion.
+//
+// C(r) at dimension m is the fraction of pairs of delay vectors i < j with j − i > w (the
+// Theiler window) whose maximum-norm (by default) distance is at most r. All radii are counted
+// in one traversal of the neighbour index per m (neighbors.Index.PairCounts), so the cost is
+// one pair-counting pass per dimension, not one query per radius.
+//
+// The decision rules, each shown in the result:
+//   - Scaling range: the longest range of radii whose local slopes of log C against log r are
+//     stable (fit.ScalingRange, tolerance 10 % of the median slope, retried at 20 %), among
+//     radii whose pair count is at least 50. D2(m) is the least-squares slope there.
+//   - Interval: the 95 % percentile bootstrap of the slope over the range's points (fit.Bootstrap),
+//     widened to cover the spread of D2(m) over the dimensions it is read from.
+//   - Saturated: D2(m) of the three largest fitted dimensions agree within max(0.1, 5 %) and
+//     lie at least 1 below the embedding dimension. D2 is then their median; otherwise D2 is the
+//     value at the largest fitted dimension and Saturated is false.
+//   - Caution when D2 > 2·log10(N): no record of N points can show a larger dimension
+//     (Eckmann & Ruelle 1992).
+//
+// References: P. Grassberger and I. Procaccia (1983), "Characterization of strange
+// attractors", Physical Review Letters 50, 346–349, and "Measuring the strangeness of strange
+// attractors", Physica D 9, 189–208; J. Theiler (1986), "Spurious dimension from correlation
+// algorithms applied to limited time-series data", Physical Review A 34, 2427–2432; F. Takens
+// (1985), "On the numerical determination of the dimension of an attractor", Lecture Notes in
+// Mathematics 1125, 99–106; J.-P. Eckmann and D. Ruelle (1992), "Fundamental limitations for
+// estimating dimensions and Lyapunov exponents in dynamical systems", Physica D 56, 185–187.
+package dimension
+
+import (
+	"errors"
+	"fmt"
+	"math"
+	"math/rand/v2"
+	"slices"
+
+	"unfold/fit"
+	"unfold/neighbors"
+)
+
+// Options configure CorrelationDimension. Lag must be set; the rest have defaults.
+type Options struct {
+	// Lag is the delay in samples (≥ 1).
+	Lag int
+	// MaxDim is the largest embedding dimension (0 means 8).
+	MaxDim int
+	// Theiler excludes pairs with |i − j| ≤ Theiler samples (0 excludes only i = j).
+	Theiler int
+	// Radii are the radii in signal units, ascending; nil chooses NumRadii log-spaced radii
+	// from 10^−3.5 of the record's range up to its range.
+	Radii []float64
+	// NumRadii is the number of automatic radii (0 means 40).
+	NumRadii int
+	// Euclidean uses the Euclidean norm instead of the maximum norm.
+	Euclidean bool
+	// Seed seeds the bootstrap.
+	Seed uint64
+	// Threads is the number of goroutines for pair counting (0 = all cores).
+	Threads int
+	// Progress, when not nil, is called with (done, total) over each dimension's pass.
+	Progress func(done, total int)
+}
+
+// Curve is the correlation sum at one embedding dimension.
+type Curve struct {
+	Dim int `json:"dimension"`
+	// C[k] is the correlation sum at Radii[k]; Pairs[k] the pair count behind it.
+	C     []float64 `json:"c"`
+	Pairs []int64   `json:"pairs"`
+	// Slopes[k] is the local slope d log C / d log r at Radii[k] (three-point least squares;
+	// NaN where C is zero or at the ends).
+	Slopes []float64 `json:"local_slopes"`
+	// Fitted is true when a scaling range was found; D2 is then the fitted slope over radii
+	// From…To (indices into Radii) and Lo, Hi its bootstrap interval.
+	Fitted   bool    `json:"fitted"`
+	D2       float64 `json:"d2"`
+	Lo       float64 `json:"lo"`
+	Hi       float64 `json:"hi"`
+	From, To int     `json:"-"`
+	// Takens is the maximum-likelihood dimension at the top of the scaling range.
+	Takens float64 `json:"takens"`
+}
+
+// Result is the outcome of CorrelationDimension.
+type Result struct {
+	Radii  []float64
+	Curves []Curve
+	// D2 is the correlation dimension, with its interval [Lo, Hi] and the radii [RLo, RHi]
+	// of the scaling range it was read from (at dimension Dim).
+	D2, Lo, Hi float64
+	RLo, RHi   float64
+	Dim        int
+	// Saturated is true when D2 stops growing with m (see the package comment).
+	Saturated bool
+	// Takens is the Takens (1985) maximum-likelihood estimate at dimension Dim.
+	Takens float64
+	// Lag, Theiler, MaxDim and Norm are the parameters used ("max" or "euclidean").
+	Lag, Theiler, MaxDim int
+	Norm                 string
+	// Points is the number of delay vectors at the largest dimension.
+	Points   int
+	Cautions []string
+}
+
+// ErrNoScaling reports that no dimension had a scaling range.
+var ErrNoScaling = errors.New("no scaling range in any correlation sum")
+
+// minPairs is the fewest pairs a radius needs to enter the fit (common practice: below a few
+// dozen pairs the counting noise dominates the slope).
+const minPairs = 50
+
+// CorrelationDimension computes the correlation sums of x for m = 1…MaxDim and the correlation
+// dimension read from them (see the package comment for the rules).
+func CorrelationDimension(x []float64, opt Options) (*Result, error) {
+	if opt.Lag < 1 {
+		return nil, fmt.Errorf("correlation dimension: lag %d: want ≥ 1", opt.Lag)
+	}
+	if opt.MaxDim <= 0 {
+		opt.MaxDim = 8
+	}
+	if opt.NumRadii <= 0 {
+		opt.NumRadii = 40
+	}
+	if opt.Theiler < 0 {
+		opt.Theiler = 0
+	}
+	n := len(x)
+	lo, hi := math.Inf(1), math.Inf(-1)
+	for i, v := range x {
+		if math.IsNaN(v) || math.IsInf(v, 0) {
+			return nil, fmt.Errorf("correlation dimension: sample %d is %v", i, v)
+		}
+		lo, hi = math.Min(lo, v), math.Max(hi, v)
+	}
+	for opt.MaxDim > 1 && n-(opt.MaxDim-1)*opt.Lag < 2*opt.Theiler+100 {
+		opt.MaxDim--
+	}
+	if n-(opt.MaxDim-1)*opt.Lag < 2*opt.Theiler+100 {
+		return nil, fmt.Errorf("correlation dimension: %d samples are too few for lag %d and Theiler window %d", n, opt.Lag, opt.Theiler)
+	}
+	if !(hi > lo) {
+		return nil, errors.New("correlation dimension: the record is constant")
+	}
+	norm, normName := neighbors.Max, "max"
+	if opt.Euclidean {
+		norm, normName = neighbors.Euclidean, "euclidean"
+	}
+	radii := slices.Clone(opt.Radii)
+	if radii == nil {
+		top := hi - lo
+		if opt.Euclidean {
+			top *= math.Sqrt(float64(opt.MaxDim))
+		}
+		radii = make([]float64, opt.NumRadii)
+		for k := range radii {
+			radii[k] = top * math.Pow(10, -3.5+3.5*float64(k)/float64(opt.NumRadii-1))
+		}
+	} else {
+		slices.Sort(radii)
+		if len(radii) < 5 || radii[0] <= 0 {
+			return nil, fmt.Errorf("correlation dimension: need at least 5 positive radii, got %d", len(radii))
+		}
+	}
+	res := &Result{Radii: radii, Lag: opt.Lag, Theiler: opt.Theiler, MaxDim: opt.MaxDim, Norm: normName}
+	logr := make([]float64, len(radii))
+	for k, r := range radii {
+		logr[k] = math.Log(r)
+	}
+	rng := rand.New(rand.NewPCG(opt.Seed, 0x64696d656e73696f))
+	for m := 1; m <= opt.MaxDim; m++ {
+		ix, err := neighbors.FromEmbedding(x, opt.Lag, m, norm)
+		if err != nil {
+			return nil, fmt.Errorf("correlation dimension: m = %d: %w", m, err)
+		}
+		np := ix.Len()
+		res.Points = np
+		counts := ix.PairCounts(radii, opt.Theiler, opt.Threads, opt.Progress)
+		w := int64(np - opt.Theiler - 1)
+		total := float64(w) * float64(w+1) / 2
+		cv := Curve{Dim: m, C: make([]float64, len(radii)), Pairs: counts}
+		logc := make([]float64, len(radii))
+		for k, c := range counts {
+			cv.C[k] = float64(c) / total
+			logc[k] = math.Log(cv.C[k]) // −Inf for zero counts
+		}
+		cv.Slopes = localSlopes(logr, logc)
+		fitCurve(&cv, logr, logc, counts, rng)
+		res.Curves = append(res.Curves, cv)
+	}
+	if err := res.decide(n); err != nil {
+		return res, err
+	}
+	return res, nil
+}
+
+// localSlopes returns the three-point least-squares slope at every radius (NaN at the ends and
+// where a count is zero).
+func localSlopes(x, y []float64) []float64 {
+	s := make([]float64, len(x))
+	for k := range s {
+		s[k] = math.NaN()
+		if k == 0 || k == len(x)-1 {
+			continue
+		}
+		if math.IsInf(y[k-1], 0) || math.IsInf(y[k+1], 0) || math.IsInf(y[k], 0) {
+			continue
+		}
+		s[k] = (y[k+1] - y[k-1]) / (x[k+1] - x[k-1])
+	}
+	return s
+}
+
+// fitCurve finds the scaling range of one correlation sum and fills D2, its interval and the
+// Takens estimate.
+func fitCurve(cv *Curve, logr, logc []float64, counts []int64, rng *rand.Rand) {
+	from := 0
+	for from < len(counts) && counts[from] < minPairs {
+		from++
+	}
+	// Exclude the saturated top (C within 1 % of 1: the attractor's size, not its scaling).
+	to := len(counts)
+	for to > from && cv.C[to-1] > 0.5 {
+		to--
+	}
+	if to-from < 5 {
+		return
+	}
+	var rg fit.Range
+	var err error
+	for _, tol := range []float64{0.1, 0.2} {
+		rg, err = fit.ScalingRange(logr, logc, fit.RangeOptions{RelTol: tol, From: from, To: to})
+		if err == nil {
+			break
+		}
+	}
+	if err != nil {
+		return
+	}
+	cv.Fitted = true
+	cv.From, cv.To = rg.From, rg.To
+	cv.D2 = rg.Line.Slope
+	xs := logr[rg.From : rg.To+1]
+	ys := logc[rg.From : rg.To+1]
+	bx := make([]float64, len(xs))
+	by := make([]float64, len(xs))
+	iv, err := fit.Bootstrap(rng, len(xs), 200, 0.95, func(idx []int) float64 {
+		for i, j := range idx {
+			bx[i], by[i] = xs[j], ys[j]
+		}
+		l, err := fit.LeastSquares(bx, by)
+		if err != nil {
+			return math.NaN()
+		}
+		return l.Slope
+	})
+	if err == nil {
+		cv.Lo, cv.Hi = iv.Lo, iv.Hi
+	} else {
+		cv.Lo, cv.Hi = cv.D2-2*rg.Line.SlopeSE, cv.D2+2*rg.Line.SlopeSE
+	}
+	cv.Takens = takens(logr, cv.C, rg.To)
+}
+
+// takens returns the Takens (1985) maximum-likelihood dimension at radius index top:
+// D = C(r0)/∫_0^{r0} C(r) d ln r, with the integral by the trapezoid rule in ln r over the
+// computed radii and, below the smallest radius with pairs, the power-law tail C(r1)/D, which
+// gives D = (C(r0) − C(r1)) / ∫_{r1}^{r0} C d ln r.
+func takens(logr, c []float64, top int) float64 {
+	first := 0
+	for first < top && c[first] == 0 {
+		first++
+	}
+	var integral float64
+	for k := first; k < top; k++ {
+		integral += 0.5 * (c[k] + c[k+1]) * (logr[k+1] - logr[k])
+	}
+	if integral <= 0 {
+		return math.NaN()
+	}
+	return (c[top] - c[first]) / integral
+}
+
+// decide reads D2 from the fitted curves and sets saturation and cautions.
+func (r *Result) decide(n int) error {
+	var fitted []Curve
+	for _, c := range r.Curves {
+		if c.Fitted {
+			fitted = append(fitted, c)
+		}
+	}
+	if len(fitted) == 0 {
+		r.Cautions = append(r.Cautions, "no correlation sum has a scaling range: the record may be noise, too short, or the radii miss the scaling region")
+		return fmt.Errorf("correlation dimension: %w", ErrNoScaling)
+	}
+	last := fitted[len(fitted)-1]
+	r.Dim, r.D2, r.Lo, r.Hi, r.Takens = last.Dim, last.D2, last.Lo, last.Hi, last.Takens
+	r.RLo, r.RHi = r.Radii[last.From], r.Radii[last.To]
+	if len(fitted) >= 3 {
+		tail := fitted[len(fitted)-3:]
+		d := []float64{tail[0].D2, tail[1].D2, tail[2].D2}
+		lo, hi := slices.Min(d), slices.Max(d)
+		med := d[0] + d[1] + d[2] - lo - hi
+		if hi-lo <= math.Max(0.1, 0.05*med) && hi <= float64(tail[2].Dim)-1 {
+			r.Saturated = true
+			r.D2 = med
+			mid := tail[1]
+			for _, c := range tail {
+				if c.D2 == med {
+					mid = c
+				}
+			}
+			r.Dim, r.Takens = mid.Dim, mid.Takens
+			r.RLo, r.RHi = r.Radii[mid.From], r.Radii[mid.To]
+			r.Lo = math.Min(slices.Min([]float64{tail[0].Lo, tail[1].Lo, tail[2].Lo}), lo)
+			r.Hi = math.Max(slices.Max([]float64{tail[0].Hi, tail[1].Hi, tail[2].Hi}), hi)
+		}
+	}
+	if !r.Saturated {
+		r.Cautions = append(r.Cautions, fmt.Sprintf("D2 does not saturate up to dimension %d: the estimate %.2g is a lower bound of a high-dimensional or stochastic signal", last.Dim, last.D2))
+	}
+	if lim := 2 * math.Log10(float64(n)); r.D2 > lim {
+		r.Cautions = append(r.Cautions, fmt.Sprintf("D2 = %.2f exceeds 2·log10(N) = %.2f, the largest dimension %d points can show (Eckmann & Ruelle 1992)", r.D2, lim, n))
+	}
+	return nil
+}
