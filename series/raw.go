@@ -14,8 +14,8 @@ func readRaw(r io.Reader, path, format string, opt ReadOptions) (*Series, error)
 	if format == FormatF32LE {
 		width = 4
 	}
-	g := gapFiller{policy: opt.Gaps, vals: make([]float64, 0, 4096)}
-	buf := make([]byte, 64<<10) // a multiple of 8
+	g := gapFiller{policy: opt.Gaps}
+	buf := make([]byte, 16<<10) // a multiple of 8
 	var total int64
 	have := 0
 	for {

@@ -209,7 +209,7 @@ func read(r io.Reader, name string, opt ReadOptions) (*Series, readInfo, error) 
 			return nil, info, err
 		}
 	}
-	br := bufio.NewReaderSize(r, 64<<10)
+	br := bufio.NewReaderSize(r, 16<<10)
 	head, err := br.Peek(512)
 	if err != nil && err != io.EOF && err != bufio.ErrBufferFull {
 		return nil, info, fmt.Errorf("reading %s: %w", path, err)
@@ -222,7 +222,7 @@ func read(r io.Reader, name string, opt ReadOptions) (*Series, readInfo, error) 
 			return nil, info, &InputError{Path: path, Msg: fmt.Sprintf("corrupt gzip header: %v", err)}
 		}
 		info.gzip = true
-		br = bufio.NewReaderSize(&gzipErrReader{r: zr, path: path}, 64<<10)
+		br = bufio.NewReaderSize(&gzipErrReader{r: zr, path: path}, 16<<10)
 		in = br
 		head, err = br.Peek(512)
 		if err != nil && err != io.EOF && err != bufio.ErrBufferFull {

@@ -25,7 +25,7 @@ type lineReader struct {
 }
 
 func newLineReader(r io.Reader, path string) *lineReader {
-	return &lineReader{r: r, path: path, buf: make([]byte, 64<<10)}
+	return &lineReader{r: r, path: path, buf: make([]byte, 16<<10)}
 }
 
 // next returns the next line without its terminator ("\n" or "\r\n"), or io.EOF.
@@ -599,7 +599,7 @@ func readText(r io.Reader, path string, opt ReadOptions) (*Series, []string, err
 	if tcol >= 0 {
 		tc.name = colName(tcol)
 	}
-	g := gapFiller{policy: opt.Gaps, vals: make([]float64, 0, 4096)}
+	g := gapFiller{policy: opt.Gaps}
 	for {
 		if len(fields) != ncol {
 			col := 1
