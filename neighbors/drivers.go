@@ -353,15 +353,7 @@ func (pc *pairCounter) cross(a, b int32, h []int64) {
 	}
 	na, nb := &ix.nodes[a], &ix.nodes[b]
 	if na.left < 0 && nb.left < 0 {
-		dim := ix.dim
-		for p := int(na.start); p < int(na.end); p++ {
-			x := ix.pts[p*dim : p*dim+dim]
-			for q := int(nb.start); q < int(nb.end); q++ {
-				if k := pc.bin(ix.key(x, ix.pts[q*dim:q*dim+dim]), kl); k < len(pc.ts) {
-					h[k]++
-				}
-			}
-		}
+		pc.leafPairs(na, b, kl, h)
 		return
 	}
 	sa, sb := na.end-na.start, nb.end-nb.start
@@ -372,4 +364,67 @@ func (pc *pairCounter) cross(a, b int32, h []int64) {
 	}
 	pc.cross(na.left, b, h)
 	pc.cross(na.right, b, h)
+}
+
+// pointBoxKeys returns the smallest and largest keys between point x and any point of box id.
+func (pc *pairCounter) pointBoxKeys(x []float64, id int32) (lo, hi float64) {
+	dim := pc.ix.dim
+	b := pc.ix.box[int(id)*2*dim : int(id)*2*dim+2*dim]
+	bl, bh := b[:len(x)], b[dim:dim+len(x)]
+	euclid := pc.ix.norm == Euclidean
+	for d, v := range x {
+		a, c := bl[d]-v, v-bh[d] // at most one is positive
+		g := fmax(fmax(a, c), 0)
+		f := fmax(-a, -c)
+		if euclid {
+			lo += float64(g * g)
+			hi += float64(f * f)
+		} else {
+			lo, hi = fmax(lo, g), fmax(hi, f)
+		}
+	}
+	return lo, hi
+}
+
+// fmax is max for numbers that are never NaN (cheaper than the builtin, which orders NaN and −0).
+func fmax(a, b float64) float64 {
+	if a > b {
+		return a
+	}
+	return b
+}
+
+// leafPairs counts the pairs between leaf na and leaf b, whose keys lie in bins >= kl: each
+// point of na is first compared with b's box, so that b is counted whole when it can be.
+func (pc *pairCounter) leafPairs(na *node, b int32, kl int, h []int64) {
+	ix := pc.ix
+	dim := ix.dim
+	nb := &ix.nodes[b]
+	sb := int64(nb.end - nb.start)
+	K := len(pc.ts)
+	rows := ix.pts[int(nb.start)*dim : int(nb.end)*dim]
+	for p := int(na.start); p < int(na.end); p++ {
+		x := ix.pts[p*dim : p*dim+dim]
+		lo, hi := pc.pointBoxKeys(x, b)
+		k1 := pc.bin(lo, kl)
+		if k1 == K {
+			continue
+		}
+		k2 := pc.bin(hi, k1)
+		if k1 == k2 {
+			h[k1] += sb
+			continue
+		}
+		// Keys of this point's pairs lie in bins k1 … k2 (k2 may be K: beyond every radius).
+		for c := 0; c < len(rows); c += dim {
+			key := ix.key(x, rows[c:c+dim])
+			k := k1
+			for k < k2 && pc.ts[k] < key {
+				k++
+			}
+			if k < K {
+				h[k]++
+			}
+		}
+	}
 }

@@ -291,7 +291,9 @@ func (ix *Index) key(a, b []float64) float64 {
 		return s
 	}
 	for d, v := range a {
-		s = max(s, math.Abs(v-b[d]))
+		if t := math.Abs(v - b[d]); t > s {
+			s = t
+		}
 	}
 	return s
 }

@@ -162,7 +162,7 @@ const boundSlack = 1e-12
 // off, given the parent's bound rd: exact for the maximum norm, within boundSlack otherwise.
 func (s *Searcher) childBound(rd, old, off float64) float64 {
 	if s.ix.norm == Max {
-		return max(rd, off)
+		return fmax(rd, off)
 	}
 	return rd + (float64(off*off) - float64(old*old))
 }
@@ -196,8 +196,8 @@ func (s *Searcher) knn(id int32, rd float64) {
 	d := nd.split
 	qd := s.q[d]
 	old := s.off[d]
-	offL := max(old, qd-nd.lmax)
-	offR := max(old, nd.rmin-qd)
+	offL := fmax(old, qd-nd.lmax)
+	offR := fmax(old, nd.rmin-qd)
 	first, second := nd.left, nd.right
 	offF, offS := offL, offR
 	if offR < offL || (offR == offL && qd-nd.lmax > nd.rmin-qd) {
@@ -373,9 +373,9 @@ func (s *Searcher) radius(id int32, rd float64) {
 	qd := s.q[d]
 	old := s.off[d]
 	for side := 0; side < 2; side++ {
-		child, off := nd.left, max(old, qd-nd.lmax)
+		child, off := nd.left, fmax(old, qd-nd.lmax)
 		if side == 1 {
-			child, off = nd.right, max(old, nd.rmin-qd)
+			child, off = nd.right, fmax(old, nd.rmin-qd)
 		}
 		crd := rd
 		if off != old {
