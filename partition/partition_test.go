@@ -60,7 +60,7 @@ func TestSearchTentAndSkewed(t *testing.T) {
 		f    func(float64) float64
 		want float64
 	}{
-		{"tent μ = 1.99", tentMap, 0.5},          // the maximum of the tent map (exact)
+		{"tent μ = 1.99", tentMap, 0.5},              // the maximum of the tent map (exact)
 		{"skewed 2x√(1−x²)", skewed, 1 / math.Sqrt2}, // its maximum (exact, see skewed)
 	}
 	for _, c := range cases {
