@@ -390,10 +390,17 @@ func resolveColumn(spec string, names []string, ncol int) int {
 
 // timeCheck verifies, line by line, that time stamps advance by a constant step within the
 // precision they are written with.
+//
+// The precision q of the column is the finest one among its stamps (the most decimals seen):
+// writers that drop trailing zeros ("1959.25" next to "1959.0833333333") write every stamp
+// to that precision. A step may differ from the mean step by the rounding of two stamps and of
+// the mean (q·(1 + 1/(n−1))) when q is at most a quarter of the step, so that a gap or a
+// repeat (a deviation of a whole step) is never mistaken for rounding; and by 1% of the step
+// in any case.
 type timeCheck struct {
 	n         int
 	t0, prev  float64
-	quantum   float64 // coarsest precision of the stamps seen
+	quantum   float64 // finest precision of the stamps seen
 	name      string
 	path      string
 	fieldNo   int
@@ -402,7 +409,7 @@ type timeCheck struct {
 
 // add checks the next stamp t written with precision q, found on line:col.
 func (c *timeCheck) add(t, q float64, line, col int) error {
-	if q > c.quantum {
+	if c.n == 0 || q < c.quantum {
 		c.quantum = q
 	}
 	if c.n == 0 {
@@ -424,7 +431,10 @@ func (c *timeCheck) add(t, q float64, line, col int) error {
 		// Two stamps each rounded to ±q/2 make a step uncertain by q; the mean of the n−1
 		// steps so far is uncertain by q/(n−1). Allow that, or 1% of the step, whichever is
 		// larger, plus float64 round-off of the stamps themselves.
-		prec := c.quantum * (1 + 1/float64(c.n-1)) * (1 + 1e-9)
+		prec := 0.0
+		if 4*c.quantum <= mean {
+			prec = c.quantum * (1 + 1/float64(c.n-1)) * (1 + 1e-9)
+		}
 		tol := math.Max(prec, 0.01*mean) + 8*0x1p-52*math.Max(math.Abs(t), math.Abs(c.prev))
 		if math.Abs(step-mean) > tol {
 			what := "jitter"
@@ -435,7 +445,7 @@ func (c *timeCheck) add(t, q float64, line, col int) error {
 				what = "an extra or repeated sample"
 			}
 			return &InputError{Path: c.path, Line: line, Column: col,
-				Msg: fmt.Sprintf("time step %s (from %s to %s) differs from the step %s of the lines before by more than the stamps' precision (%s) and 1%% of the step — %s: %s",
+				Msg: fmt.Sprintf("time step %s (from %s to %s) differs from the step %s of the lines before by more than the rounding of the stamps (written to %s) and 1%% of the step — %s: %s",
 					fmtG(step), fmtG(c.prev), fmtG(t), fmtG(mean), fmtG(c.quantum), what, hint)}
 		}
 	}

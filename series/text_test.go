@@ -62,6 +62,7 @@ func TestReadTextGood(t *testing.T) {
 		// Stamps rounded to two decimals of k/3: steps 0.33 and 0.34 are uniform within the
 		// written precision (common practice: the tolerance is the stamps' rounding).
 		{name: "rounded stamps", file: "a.csv", content: "t,x\n0.00,1\n0.33,2\n0.67,3\n1.00,4\n1.33,5\n1.67,6\n2.00,7\n", want: []float64{1, 2, 3, 4, 5, 6, 7}, dt: 2.0 / 6, col: "x"},
+		{name: "g-format rounded stamps", file: "a.csv", content: "t,x\n0,1\n0.33,2\n0.67,3\n1,4\n1.33,5\n", want: []float64{1, 2, 3, 4, 5}, dt: 1.33 / 4, col: "x"},
 		{name: "no stamp precision but 1% jitter", file: "a.csv", content: "t,x\n0.000,1\n1.004,2\n1.998,3\n3.003,4\n", want: []float64{1, 2, 3, 4}, dt: 3.003 / 3, col: "x"},
 	}
 	for _, c := range cases {
@@ -220,6 +221,10 @@ func TestReadTextBad(t *testing.T) {
 		{name: "time gap", file: "b.csv", content: "t,x\n0.00,1\n0.10,2\n0.20,3\n0.40,4\n", line: 5, col: 1, msg: "a gap"},
 		{name: "time jitter", file: "b.csv", content: "t,x\n0.000,1\n1.000,2\n2.000,3\n3.050,4\n", line: 5, col: 1, msg: "--dt"},
 		{name: "time extra sample", file: "b.csv", content: "t,x\n0,1\n10,2\n20,3\n21,4\n", line: 5, col: 1, msg: "extra or repeated"},
+		{name: "integer stamps gap", file: "b.csv", content: "t,x\n0,1\n1,2\n2,3\n4,4\n", line: 5, col: 1, msg: "a gap"},
+		{name: "g-format stamps gap", file: "b.csv", content: "t,x\n0,1\n0.5,2\n1,3\n1.5,4\n2.5,5\n", line: 6, col: 1, msg: "a gap"},
+		{name: "monthly stamps gap", file: "b.csv", content: "year,x\n1959,1\n1959.0833333333,2\n1959.1666666667,3\n1959.25,4\n1959.4166666667,5\n", line: 6, col: 1, msg: "a gap"},
+		{name: "rounded stamps gap", file: "b.csv", content: "t,x\n0.00,1\n0.33,2\n0.67,3\n1.00,4\n1.67,5\n", line: 6, col: 1, msg: "a gap"},
 		{name: "time not a number", file: "b.csv", content: "t,x\n0,1\nnoon,2\n", line: 3, col: 1, msg: "is not a number"},
 		{name: "time missing", file: "b.csv", content: "t,x\n0,1\n,2\n", line: 3, col: 1, msg: "missing"},
 		{name: "binary with csv extension", file: "b.csv", content: "ab\x00\x01cd", msg: "the name says text but the content is binary data"},
