@@ -304,3 +304,30 @@ func TestStampQuantum(t *testing.T) {
 		}
 	}
 }
+
+// TestReadRExports reads the series exported from R's datasets package (testdata/r, written by
+// write.csv: quoted header, row names, decimal-year stamps to 15 significant digits). The
+// lengths and sampling are facts of those datasets (R documentation of co2: monthly 1959–1997,
+// 468 values; nottem: monthly 1920–1939, 240; lynx: yearly 1821–1934, 114).
+func TestReadRExports(t *testing.T) {
+	cases := []struct {
+		file, name, unit string
+		n                int
+		dt, t0           float64
+	}{
+		{"co2.csv", "co2", "", 468, 1.0 / 12, 1959},
+		{"nottem.csv", "nottem", "", 240, 1.0 / 12, 1920},
+		{"lynx.csv", "lynx", "y", 114, 1, 1821},
+	}
+	for _, c := range cases {
+		s, _, err := ReadFile(filepath.Join("..", "testdata", "r", c.file), nil, ReadOptions{})
+		if err != nil {
+			t.Errorf("%s: %v", c.file, err)
+			continue
+		}
+		// The stamps are rounded to ~1e-11 years, so dt is 1/12 to about 1e-10.
+		if s.Len() != c.n || s.Name != c.name || s.TimeUnit != c.unit || math.Abs(s.Dt-c.dt) > 1e-9 || s.T0 != c.t0 {
+			t.Errorf("%s: %d samples of %q, dt %v, t0 %v, unit %q", c.file, s.Len(), s.Name, s.Dt, s.T0, s.TimeUnit)
+		}
+	}
+}
