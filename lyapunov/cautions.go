@@ -55,9 +55,9 @@ func (r *Result) cautions(o Options) {
 
 // epsCautions warns when the Kantz curves depend on ε: their slopes differ by more than 25 %
 // of the median (or some ε has no linear range while others do), or the curves for different ε
-// merge within the first step, i.e. the initial neighbourhood size is forgotten at once (noise;
-// deterministic curves stay nearly parallel over their linear range; common practice after
-// Kantz 1994).
+// have merged (spread below half the initial one) by the end of the fit range, i.e. the initial
+// neighbourhood size is forgotten (noise; deterministic curves stay nearly parallel over their
+// linear range; common practice after Kantz 1994).
 func (r *Result) epsCautions() {
 	lo, hi := math.Inf(1), math.Inf(-1)
 	n, missing := 0, 0
@@ -79,7 +79,7 @@ func (r *Result) epsCautions() {
 		r.Cautions = append(r.Cautions, fmt.Sprintf(
 			"the slope depends strongly on ε: %d of the %d radii give no linear range", missing, len(r.Curves)))
 	}
-	// Spread of S over ε at steps 0 and 1.
+	// Spread of S over ε at step 0 and at the end of the fit range.
 	spread := func(k int) float64 {
 		a, b := math.Inf(1), math.Inf(-1)
 		for _, c := range r.Curves {
@@ -89,10 +89,20 @@ func (r *Result) epsCautions() {
 		}
 		return b - a
 	}
-	s0, s1 := spread(0), spread(1)
-	if s0 > 0 && s1 < 0.5*s0 {
+	s0 := spread(0)
+	if s0 < 1e-9 {
 		r.Cautions = append(r.Cautions, fmt.Sprintf(
-			"the divergence depends strongly on ε: the curves for different ε merge within the first step (their spread falls from %.2f to %.2f nats), as for noise",
-			s0, s1))
+			"the radii ε do not differ in effect: every ε holds the same %d nearest neighbours; give smaller --eps or a larger neighbour cap to see the ε dependence",
+			r.MaxNeighbors))
+		return
+	}
+	end := 1
+	if r.Curves[r.Chosen].FitErr == nil {
+		end = max(r.To, 1)
+	}
+	if s1 := spread(end); s1 < 0.5*s0 {
+		r.Cautions = append(r.Cautions, fmt.Sprintf(
+			"the divergence depends strongly on ε: the curves for different ε merge by step %d (their spread falls from %.2f to %.2f nats): the initial neighbourhood size is forgotten, as for noise",
+			end, s0, s1))
 	}
 }

@@ -184,7 +184,7 @@ func Divergence(x []float64, opt Options) (*Result, error) {
 	nv := ix.Len()
 	nref := nv - o.Horizon
 	if o.Method == Kantz && len(o.Eps) == 0 {
-		o.Eps = DefaultEps(ix, nref, o.Theiler)
+		o.Eps = DefaultEps(ix, nref, o.Theiler, o.MaxNeighbors)
 	}
 	r := &Result{Method: o.Method, Lag: o.Lag, Dim: o.Dim, Theiler: o.Theiler, Horizon: o.Horizon,
 		Dt: o.Dt, Norm: o.Norm, Vectors: nv, ReferencePoints: nref, Blocks: o.Blocks, Reps: o.Reps,
@@ -435,28 +435,35 @@ func (o Options) fitCurve(y []float64) (fit.Range, error) {
 	return rg, nil
 }
 
-// DefaultEps returns the default Kantz radii for an index: 2, 4, 8 and 16 times the median
-// distance from a reference point to its nearest neighbour outside the Theiler window (over up
-// to 1000 evenly spaced reference points among the first nref). Common practice: ε small
-// against the attractor but holding several neighbours, over a factor of 8 to see whether the
-// slope depends on ε.
-func DefaultEps(ix *neighbors.Index, nref, theiler int) []float64 {
+// DefaultEps returns the default Kantz radii for an index: four radii spaced geometrically
+// from d_1, the median distance from a reference point to its nearest neighbour outside the
+// Theiler window, to d_K, the median distance to its K-th nearest (K = maxNeighbors), over up
+// to 1000 evenly spaced reference points among the first nref. At d_1 about half the reference
+// points have a neighbour; at d_K about half reach the cap, so every radius sees a different
+// neighbourhood and the ε dependence can show (common practice: ε small against the attractor
+// but holding several neighbours). When d_K < 2·d_1 (distances concentrate, as for
+// high-dimensional noise) the radii span d_1 … 2·d_1.
+func DefaultEps(ix *neighbors.Index, nref, theiler, maxNeighbors int) []float64 {
 	s := ix.NewSearcher()
 	step := max(nref/1000, 1)
-	var d []float64
+	var d1, dk []float64
 	var buf []neighbors.Neighbor
 	for i := 0; i < nref; i += step {
-		buf = s.KNN(ix.Coords(i), 1, neighbors.Query{Self: i, Theiler: theiler, Hi: nref}, buf)
+		buf = s.KNN(ix.Coords(i), maxNeighbors, neighbors.Query{Self: i, Theiler: theiler, Hi: nref}, buf)
 		if len(buf) > 0 && buf[0].Dist > 0 {
-			d = append(d, buf[0].Dist)
+			d1 = append(d1, buf[0].Dist)
+			dk = append(dk, buf[len(buf)-1].Dist)
 		}
 	}
-	if len(d) == 0 {
+	if len(d1) == 0 {
 		return []float64{1, 2, 4, 8}
 	}
-	slices.Sort(d)
-	m := fit.Quantile(d, 0.5)
-	return []float64{2 * m, 4 * m, 8 * m, 16 * m}
+	slices.Sort(d1)
+	slices.Sort(dk)
+	lo, hi := fit.Quantile(d1, 0.5), fit.Quantile(dk, 0.5)
+	hi = max(hi, 2*lo)
+	r := math.Pow(hi/lo, 1.0/3)
+	return []float64{lo, lo * r, lo * r * r, hi}
 }
 
 // sums holds the per-block sums: for curve e, block b and step k, sum of logarithms and counts.

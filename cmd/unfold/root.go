@@ -38,6 +38,7 @@ an answer (the message says why), 2 bad usage or bad input (the message says wha
 		newLagCmd(a),
 		newDimCmd(a),
 		newEmbedCmd(a),
+		newLyapunovCmd(a),
 	)
 	return root
 }
