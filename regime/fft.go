@@ -1,6 +1,9 @@
 package regime
 
-import "math"
+import (
+	"math"
+	"sync"
+)
 
 // maxFactor is the largest prime factor allowed in an FFT length: gonum's fftpack has fast
 // butterflies for 2, 3, 4 and 5 and a generic pass for other factors whose cost grows with the
@@ -67,4 +70,35 @@ func hann(w []float64) float64 {
 		ss += w[i] * w[i]
 	}
 	return ss
+}
+
+// parallelFor runs fn(i) for i in [0, n) on threads goroutines; progress, when not nil, is
+// called with (done, n) from one goroutine at a time.
+func parallelFor(n, threads int, progress func(done, total int), fn func(i int)) {
+	next := make(chan int)
+	done := make(chan struct{}, n)
+	var wg sync.WaitGroup
+	for range max(1, min(threads, n)) {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for i := range next {
+				fn(i)
+				done <- struct{}{}
+			}
+		}()
+	}
+	go func() {
+		for i := range n {
+			next <- i
+		}
+		close(next)
+	}()
+	for k := 1; k <= n; k++ {
+		<-done
+		if progress != nil {
+			progress(k, n)
+		}
+	}
+	wg.Wait()
 }

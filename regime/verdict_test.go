@@ -1,0 +1,75 @@
+package regime
+
+import (
+	"reflect"
+	"testing"
+
+	"unfold/models"
+)
+
+// TestVerdicts checks the verdict on our own test signals (not the demo data) for several
+// seeds; the expected regimes are the known dynamics of each model (CHECKS.md §1: logistic
+// r = 4 chaotic, r = 3.5 period 4; Lorenz chaotic; a sine periodic; two sines in the
+// golden-mean ratio quasiperiodic; AR(1) and its cube linear Gaussian through a static
+// monotone function, hence stochastic).
+func TestVerdicts(t *testing.T) {
+	n := 3000
+	seeds := []uint64{1, 2}
+	if testing.Short() {
+		seeds = seeds[:1]
+	}
+	cases := []struct {
+		name string
+		x    func(seed uint64) []float64
+		dt   float64
+		want string
+	}{
+		{"logistic 4", func(s uint64) []float64 {
+			return simulate(t, "logistic", "x", models.Values{"r": {4}}, n, 0, s)
+		}, 1, Chaotic},
+		{"logistic 3.5", func(s uint64) []float64 {
+			return simulate(t, "logistic", "x", models.Values{"r": {3.5}}, n, 0, s)
+		}, 1, Periodic},
+		{"sine", func(uint64) []float64 { return sine(n, 37.7) }, 1, Periodic},
+		{"two sines", func(uint64) []float64 { return twoSines(n) }, 1, Quasiperiodic},
+		{"ar1", func(s uint64) []float64 { return ar1(n, 0.9, s) }, 1, Stochastic},
+		{"ar1 cubed", func(s uint64) []float64 { return cubed(ar1(n, 0.9, s)) }, 1, Stochastic},
+		{"lorenz", func(s uint64) []float64 {
+			return simulate(t, "lorenz", "x", nil, 2*n, 0.05, s)
+		}, 0.05, Chaotic},
+	}
+	for _, c := range cases {
+		for _, seed := range seeds {
+			x := c.x(seed)
+			threads := 1 + int(seed%2) // threads alternate: the verdict must not depend on them
+			a, err := Analyze(x, c.dt, Options{Seed: seed * 7, Threads: threads})
+			if err != nil {
+				t.Fatalf("%s: %v", c.name, err)
+			}
+			v := a.Verdict
+			t.Logf("%-12s seed %d: %s (%.2f) rule %s; lag %d dim %d", c.name, seed, v.Regime, v.Confidence, v.Rule, a.Evidence.Lag, a.Evidence.Dim)
+			for k, it := range v.Evidence {
+				t.Logf("    %s: %s -> %s", k, it.Detail, it.PointsTo)
+			}
+			if v.Regime != c.want {
+				t.Errorf("%s seed %d: verdict %s, want %s", c.name, seed, v.Regime, c.want)
+			}
+		}
+	}
+}
+
+// TestAnalyzeThreadIndependent: identical evidence for 1 and 2 threads (DESIGN.md §5).
+func TestAnalyzeThreadIndependent(t *testing.T) {
+	x := simulate(t, "henon", "x", nil, 2000, 0, 1)
+	a1, err := Analyze(x, 1, Options{Seed: 5, Threads: 1, Surrogates: 9})
+	if err != nil {
+		t.Fatal(err)
+	}
+	a2, err := Analyze(x, 1, Options{Seed: 5, Threads: 2, Surrogates: 9})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !reflect.DeepEqual(a1.Verdict, a2.Verdict) || !reflect.DeepEqual(a1.Evidence.Prediction, a2.Evidence.Prediction) {
+		t.Errorf("verdict differs between 1 and 2 threads:\n%+v\n%+v", a1.Verdict, a2.Verdict)
+	}
+}
