@@ -51,12 +51,12 @@ func DivergencePlot(r *Result, title string) (*plot.Plot, error) {
 	grey := color.RGBA{R: 0x9a, G: 0x9a, B: 0x9a, A: 0xff}
 	blue := color.RGBA{R: 0x1f, G: 0x5f, B: 0xa8, A: 0xff}
 	for e, c := range r.Curves {
-		if e == r.Chosen {
-			continue
+		if e == r.Chosen || c.References == 0 {
+			continue // the chosen curve is drawn last; a radius without neighbours has no curve
 		}
 		l, err := curveLine(c.MeanLog)
 		if err != nil {
-			return nil, err
+			continue
 		}
 		l.Color = grey
 		l.Width = vg.Points(1)
