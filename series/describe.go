@@ -165,20 +165,19 @@ func dominantPeriod(x []float64, mean float64) (float64, int) {
 	}
 	fft := fourier.NewFFT(nfft)
 	c := fft.Coefficients(nil, buf)
+	pow := func(k int) float64 { return real(c[k])*real(c[k]) + imag(c[k])*imag(c[k]) }
 	best, bi := 0.0, 0
-	pow := make([]float64, len(c))
-	for k := range c {
-		pow[k] = real(c[k])*real(c[k]) + imag(c[k])*imag(c[k])
-		if k > 0 && pow[k] > best {
-			best, bi = pow[k], k
+	for k := 1; k < len(c); k++ {
+		if p := pow(k); p > best {
+			best, bi = p, k
 		}
 	}
 	if bi == 0 || best == 0 {
 		return 0, nfft
 	}
 	f := float64(bi)
-	if bi > 1 && bi < len(pow)-1 && pow[bi-1] > 1e-10*best && pow[bi+1] > 1e-10*best {
-		a, b, g := math.Log(pow[bi-1]), math.Log(pow[bi]), math.Log(pow[bi+1])
+	if bi > 1 && bi < len(c)-1 && pow(bi-1) > 1e-10*best && pow(bi+1) > 1e-10*best {
+		a, b, g := math.Log(pow(bi-1)), math.Log(best), math.Log(pow(bi+1))
 		if den := a - 2*b + g; den < 0 {
 			f += 0.5 * (a - g) / den
 		}
@@ -260,27 +259,44 @@ func removeLine(x, y []float64) {
 	}
 }
 
+// acfSegment is the longest stretch over which correlationTime computes the autocovariance in
+// one transform; longer records are cut into stretches of this length whose autocovariances
+// are summed, which keeps memory bounded (a few times 2^18 numbers) for any record length.
+const acfSegment = 1 << 18
+
 // correlationTime returns the integrated autocorrelation time 1 + 2·Σρ(k), summed over k ≥ 1
-// up to the first negative ρ(k), computed by FFT (zero padded, so the estimate is not circular).
+// up to the first negative ρ(k) (and at most a quarter of the stretch length), from the
+// autocovariance computed by FFT with zero padding (so it is not circular).
 func correlationTime(x []float64, mean, std float64) float64 {
-	n := len(x)
-	nfft := fftLength(2 * n)
-	buf := make([]float64, nfft)
-	for i, v := range x {
-		buf[i] = v - mean
-	}
+	seg := min(len(x), acfSegment)
+	nfft := fftLength(2 * seg)
 	fft := fourier.NewFFT(nfft)
-	c := fft.Coefficients(nil, buf)
-	for k := range c {
-		c[k] = complex(real(c[k])*real(c[k])+imag(c[k])*imag(c[k]), 0)
+	buf := make([]float64, nfft)
+	acov := make([]float64, seg)
+	var c []complex128
+	var seq []float64
+	for lo := 0; lo+seg <= len(x); lo += seg {
+		for i := range buf {
+			buf[i] = 0
+		}
+		for i, v := range x[lo : lo+seg] {
+			buf[i] = v - mean
+		}
+		c = fft.Coefficients(c, buf)
+		for k := range c {
+			c[k] = complex(real(c[k])*real(c[k])+imag(c[k])*imag(c[k]), 0)
+		}
+		seq = fft.Sequence(seq, c)
+		for k := range acov {
+			acov[k] += seq[k]
+		}
 	}
-	acov := fft.Sequence(nil, c)
 	r0 := acov[0]
 	if r0 <= 0 {
 		return 1
 	}
 	tau := 1.0
-	for k := 1; k < n/4; k++ {
+	for k := 1; k < seg/4; k++ {
 		rho := acov[k] / r0
 		if rho < 0 {
 			break

@@ -157,3 +157,18 @@ func TestFFTLength(t *testing.T) {
 		}
 	}
 }
+
+func TestCorrelationTimeSegmented(t *testing.T) {
+	// Longer than one stretch: the summed autocovariance of several stretches must still give
+	// the AR(1) value (1+φ)/(1−φ) = 9 for φ = 0.8 (Priestley 1981).
+	r := rand.New(rand.NewPCG(7, 8))
+	n := 3*acfSegment + 1000
+	x := make([]float64, n)
+	for i := 1; i < n; i++ {
+		x[i] = 0.8*x[i-1] + r.NormFloat64()
+	}
+	m, s := meanStd(x)
+	if tau := correlationTime(x, m, s); math.Abs(tau-9)/9 > 0.05 {
+		t.Errorf("correlation time %g, want 9 within 5%%", tau)
+	}
+}
