@@ -198,3 +198,17 @@ func BenchmarkDivergenceBruteRosenstein20k(b *testing.B) {
 	}
 	b.ReportMetric(20000, "points")
 }
+
+// BenchmarkSpectrum100k is the spectrum from local maps at N = 10^5 (Lorenz x, lag 5, m = 3,
+// Theiler 50, 20 neighbours, evolve 5): go test -run '^$' -bench 'Spectrum100k$' -benchtime 1x ./lyapunov/
+func BenchmarkSpectrum100k(b *testing.B) {
+	x := lorenzX(100000, 0.01)
+	b.ReportAllocs()
+	b.ResetTimer()
+	for range b.N {
+		if _, err := Spectrum(x, SpectrumOptions{Lag: 5, Dim: 3, Theiler: 50, Dt: 0.01}); err != nil {
+			b.Fatal(err)
+		}
+	}
+	b.ReportMetric(100000, "points")
+}

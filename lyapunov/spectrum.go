@@ -55,17 +55,19 @@ type SpectrumResult struct {
 // Ruelle & Ciliberto 1986; Sano & Sawada 1985). Along the orbit of delay vectors v_n, at the
 // points i = 0, E, 2E, … (E = Evolve), the k nearest neighbours j of v_i outside the Theiler
 // window give the differences Δx_j = v_j − v_i and Δy_j = v_{j+E} − v_{i+E}; the local tangent
-// map J_i (Dim × Dim) is the least-squares solution of Δy_j ≈ J_i Δx_j (QR least squares,
-// gonum/mat). A set of Exponents orthonormal tangent vectors Q is carried along: J_i Q = Q' R
-// (QR factorisation), and exponent k is the average of ln |R_kk| per step (Benettin et al. 1980
-// re-orthonormalisation, the same scheme as models' spectra from equations).
+// map J_i (Dim × Dim) is the least-squares solution of Δy_j ≈ J_i Δx_j (Gram–Schmidt QR in
+// preallocated buffers, no allocation per point). A set of Exponents orthonormal tangent vectors
+// Q is carried along: J_i Q = Q' R (QR factorisation by gonum/mat), and exponent k is the
+// average of ln |R_kk| per step (Benettin et al. 1980 re-orthonormalisation, the same scheme as
+// models' spectra from equations).
 //
 // Exponents beyond the attractor's dimension are properties of the embedding, not of the
 // dynamics, and can be spurious (Sano & Sawada 1985; Eckmann et al. 1986 reduce the local
 // dimension for this reason): the result's Note says so.
 //
-// The local fits run in parallel in batches; the QR chain is sequential. Memory is O(N·m) for
-// the index plus one batch of maps.
+// The local fits run in parallel in batches of 2048; the QR chain is sequential (gonum's QR
+// allocates a few small buffers per step). Memory is O(N·m) for the index plus one batch of
+// maps. The result does not depend on the number of threads.
 func Spectrum(x []float64, opt SpectrumOptions) (*SpectrumResult, error) {
 	o := opt
 	if o.Lag < 1 || o.Dim < 1 {
@@ -211,53 +213,94 @@ func Spectrum(x []float64, opt SpectrumOptions) (*SpectrumResult, error) {
 
 // localFit holds one goroutine's scratch space for the local least-squares maps.
 type localFit struct {
-	ix     *neighbors.Index
-	s      *neighbors.Searcher
-	x      []float64
-	o      SpectrumOptions
-	buf    []neighbors.Neighbor
-	dx, dy *mat.Dense
-	jt     mat.Dense
-	qr     mat.QR
+	ix  *neighbors.Index
+	s   *neighbors.Searcher
+	x   []float64
+	o   SpectrumOptions
+	buf []neighbors.Neighbor
+	// a holds the Dim columns of Δx and b the Dim columns of Δy, each of length Neighbors
+	// (column-major); r is the Dim×Dim triangular factor and y = Qᵀ·Δy.
+	a, b, r, y []float64
 }
 
 func newLocalFit(ix *neighbors.Index, x []float64, o SpectrumOptions) *localFit {
+	k, m := o.Neighbors, o.Dim
 	return &localFit{ix: ix, s: ix.NewSearcher(), x: x, o: o,
-		dx: mat.NewDense(o.Neighbors, o.Dim, nil), dy: mat.NewDense(o.Neighbors, o.Dim, nil)}
+		a: make([]float64, k*m), b: make([]float64, k*m), r: make([]float64, m*m), y: make([]float64, m*m)}
 }
 
 // fit writes the local map at vector i (row-major Dim × Dim) into dst and reports whether the
-// neighbourhood determined it.
+// neighbourhood determined it. The least-squares problem Δx·Jᵀ ≈ Δy is solved by modified
+// Gram–Schmidt QR of Δx applied to the augmented columns (Björck 1967, "Solving linear least
+// squares problems by Gram–Schmidt orthogonalization", BIT 7, 1), in preallocated buffers so
+// that no allocation happens per point; a column whose remaining norm is below 1e-10 of the
+// largest makes the neighbourhood degenerate.
 func (w *localFit) fit(i, hi int, dst []float64) bool {
 	o := w.o
-	m, lag, e := o.Dim, o.Lag, o.Evolve
-	w.buf = w.s.KNN(w.ix.Coords(i), o.Neighbors, neighbors.Query{Self: i, Theiler: o.Theiler, Hi: hi}, w.buf)
-	if len(w.buf) < o.Neighbors {
+	m, lag, e, k := o.Dim, o.Lag, o.Evolve, o.Neighbors
+	w.buf = w.s.KNN(w.ix.Coords(i), k, neighbors.Query{Self: i, Theiler: o.Theiler, Hi: hi}, w.buf)
+	if len(w.buf) < k {
 		return false
 	}
-	x := w.x
+	x, a, b := w.x, w.a, w.b
 	for r, nb := range w.buf {
 		j := nb.Index
 		for c := range m {
-			w.dx.Set(r, c, x[j+c*lag]-x[i+c*lag])
-			w.dy.Set(r, c, x[j+e+c*lag]-x[i+e+c*lag])
+			a[c*k+r] = x[j+c*lag] - x[i+c*lag]
+			b[c*k+r] = x[j+e+c*lag] - x[i+e+c*lag]
 		}
 	}
-	// dx · Jᵀ ≈ dy in the least-squares sense.
-	w.qr.Factorize(w.dx)
-	if c := w.qr.Cond(); math.IsInf(c, 0) || c > 1e12 {
-		return false
+	var top float64
+	for c := range m {
+		col := a[c*k : (c+1)*k]
+		var nn float64
+		for _, v := range col {
+			nn += v * v
+		}
+		nn = math.Sqrt(nn)
+		top = math.Max(top, nn)
+		if !(nn > 1e-10*top) {
+			return false
+		}
+		w.r[c*m+c] = nn
+		for t := range col {
+			col[t] /= nn
+		}
+		for c2 := c + 1; c2 < m; c2++ {
+			col2 := a[c2*k : (c2+1)*k]
+			var d float64
+			for t, v := range col {
+				d += v * col2[t]
+			}
+			w.r[c*m+c2] = d
+			for t, v := range col {
+				col2[t] -= d * v
+			}
+		}
+		for j := range m {
+			bj := b[j*k : (j+1)*k]
+			var d float64
+			for t, v := range col {
+				d += v * bj[t]
+			}
+			w.y[c*m+j] = d
+			for t, v := range col {
+				bj[t] -= d * v
+			}
+		}
 	}
-	if err := w.qr.SolveTo(&w.jt, false, w.dy); err != nil {
-		return false
-	}
-	for r := range m {
-		for c := range m {
-			v := w.jt.At(c, r)
+	// Back-substitution R·Jᵀ = Y; Jᵀ[c][j] is J[j][c].
+	for c := m - 1; c >= 0; c-- {
+		for j := range m {
+			v := w.y[c*m+j]
+			for c2 := c + 1; c2 < m; c2++ {
+				v -= w.r[c*m+c2] * dst[j*m+c2]
+			}
+			v /= w.r[c*m+c]
 			if math.IsNaN(v) || math.IsInf(v, 0) {
 				return false
 			}
-			dst[r*m+c] = v
+			dst[j*m+c] = v
 		}
 	}
 	return true
