@@ -8,6 +8,7 @@ import (
 
 	"unfold/dimension"
 	"unfold/embed"
+	"unfold/lyapunov"
 	"unfold/series"
 )
 
@@ -149,7 +150,9 @@ func Decide(ev *Evidence) *Verdict {
 	}
 	lyapPos, lyapNeg := false, false
 	if l := ev.Lyapunov; l != nil {
-		lyapPos, lyapNeg = l.Lo > 0, l.Hi <= 0
+		// Growth below 1 % per delay time is indistinguishable from zero (judgement).
+		small := 0.01 / (float64(max(ev.Lag, 1)) * math.Max(ev.Dt, 1e-300))
+		lyapPos, lyapNeg = l.Lo > 0 && l.Value > small, l.Hi <= 0 || math.Abs(l.Value) <= small
 		it := Item{Value: l.Value, Weight: 2, Detail: fmt.Sprintf("largest Lyapunov exponent %.3g [%.3g, %.3g] nats per time unit", l.Value, l.Lo, l.Hi)}
 		switch {
 		case lyapPos:
@@ -250,8 +253,10 @@ type Options struct {
 	Surrogates int
 	// Seed seeds surrogates, the 0-1 test's c and bootstraps.
 	Seed uint64
-	// Lyapunov is λ1 with its interval when the caller estimated it (nil: not used).
-	Lyapunov *Exponent
+	// Lyapunov is λ1 with its interval when the caller estimated it; nil estimates it with
+	// package lyapunov's defaults (Kantz 1994 divergence curves) unless NoLyapunov is set.
+	Lyapunov   *Exponent
+	NoLyapunov bool
 	// MaxAnalysis caps the samples used by the embedding choices, D2 and the surrogate
 	// statistics (0 means 20 000); the spectrum uses the whole record.
 	MaxAnalysis int
@@ -338,15 +343,17 @@ func Analyze(x []float64, dt float64, opt Options) (*Analysis, error) {
 	if z, err := ZeroOne(x, ZeroOneOptions{Subsample: max(1, ev.Lag), Seed: opt.Seed}); err == nil {
 		ev.ZeroOne = z
 	}
+	// Largest Lyapunov exponent.
+	if ev.Lyapunov == nil && !opt.NoLyapunov {
+		r, err := lyapunov.Divergence(xa, lyapunov.Options{Lag: ev.Lag, Dim: ev.Dim, Theiler: ev.Theiler, Dt: dt, Seed: opt.Seed, Threads: threads})
+		if err == nil && r != nil && !math.IsNaN(r.Lambda) {
+			ev.Lyapunov = &Exponent{Value: r.Lambda, Lo: r.Interval[0], Hi: r.Interval[1]}
+		}
+	}
 	// Correlation dimension.
 	maxDim := min(max(ev.Dim+3, 5), 8)
-	if d, err := dimension.CorrelationDimension(xa, dimension.Options{Lag: ev.Lag, MaxDim: maxDim, Theiler: ev.Theiler, Seed: opt.Seed, Threads: threads}); err == nil || d != nil {
-		if err == nil || errors.Is(err, dimension.ErrNoScaling) {
-			ev.Dimension = d
-			if err != nil {
-				ev.Dimension = nil
-			}
-		}
+	if d, err := dimension.CorrelationDimension(xa, dimension.Options{Lag: ev.Lag, MaxDim: maxDim, Theiler: ev.Theiler, Seed: opt.Seed, Threads: threads}); err == nil {
+		ev.Dimension = d
 	}
 	// Surrogate tests.
 	set, err := Surrogates(xa, SurrogateOptions{Method: IAAFT, Count: opt.Surrogates, Seed: opt.Seed, Threads: threads})

@@ -39,6 +39,12 @@ an answer (the message says why), 2 bad usage or bad input (the message says wha
 		newDimCmd(a),
 		newEmbedCmd(a),
 		newLyapunovCmd(a),
+		newFractalCmd(a),
+		newNullsCmd(a),
+		newRegimeCmd(a),
+		newSectionCmd(a),
+		newSymbolsCmd(a),
+		newEntropyCmd(a),
 	)
 	return root
 }

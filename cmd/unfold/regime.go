@@ -1,0 +1,255 @@
+package main
+
+import (
+	"fmt"
+	"image/color"
+	"slices"
+	"strconv"
+
+	"github.com/spf13/cobra"
+	"gonum.org/v1/plot"
+	"gonum.org/v1/plot/plotter"
+	"gonum.org/v1/plot/vg"
+
+	"unfold/regime"
+	"unfold/series"
+)
+
+type regimeOptions struct {
+	in         inputOptions
+	lag        int
+	dim        int
+	theiler    int
+	surrogates int
+	noLyap     bool
+	plot       string
+}
+
+// regimeRule is the decision rule, shown in --help (the same text as the package comment).
+const regimeRule = `Decision rule, in order:
+  1. Lines. If the spectrum is a line spectrum (at least half the power within ±4 bins of
+     significant lines) whose lines are the harmonics of one fundamental, the regime is
+     periodic; if they are integer combinations of two or three incommensurate fundamentals,
+     quasiperiodic — provided the 0-1 test does not say chaos (K < 0.5).
+  2. Null. Otherwise 19 IAAFT surrogates (a linear Gaussian process seen through a static
+     monotone function) are compared with the data by a nonlinear prediction error (one-sided)
+     and time-reversal asymmetry (two-sided) in rank tests. If neither rejects the null (rank
+     p ≤ 0.05, and the data at least 3 surrogate standard deviations away), the regime is
+     stochastic, whatever λ1 says.
+  3. Chaos. The null is rejected: chaotic if the 0-1 test gives K ≥ 0.5 and either λ1's
+     interval is above zero or D2 saturates (and λ1 is not ≤ 0); otherwise undetermined.
+Confidence is the weighted share of the evidence (lines 3, prediction error 3, 0-1 test 2,
+λ1 2, D2 1.5, reversal 1, Cao E2 1) that points to the regime, times 0.8 for records under
+2000 samples and 0.9 for non-stationary ones; undetermined has confidence 0.`
+
+func newRegimeCmd(a *app) *cobra.Command {
+	o := &regimeOptions{}
+	cmd := &cobra.Command{
+		Use:   "regime FILE",
+		Short: "Verdict: periodic, quasiperiodic, chaotic, stochastic or undetermined, with evidence and cautions",
+		Long: `regime gathers the evidence — Welch spectrum and line analysis, the 0-1 test for chaos
+(Gottwald & Melbourne 2004, 2009; oversampled flows are subsampled by the delay first), IAAFT
+surrogate tests (Schreiber & Schmitz 1996) of a nonlinear prediction error (Farmer & Sidorowich
+1987) and time-reversal asymmetry, the largest Lyapunov exponent (Kantz 1994) with its interval,
+the correlation dimension D2 and its saturation, and Cao's E2 — and decides the regime.
+
+` + regimeRule + `
+
+The lag, dimension and Theiler window are chosen as 'unfold lag' and 'unfold dim' do unless
+given, and printed. The embedding choices, D2 and the surrogate tests use at most the first
+20 000 samples; the spectrum and the 0-1 test use the whole record (the 0-1 test at most 20 000
+samples after subsampling).`,
+		Example: `  # a simulated Lorenz record: chaotic
+  unfold simulate lorenz --n 20000 -o lorenz.csv
+  unfold regime --column x lorenz.csv
+  # JSON with the evidence table, another seed, the evidence drawn
+  unfold regime --json --seed 7 --plot evidence.png --column x lorenz.csv`,
+		Args: exactArgs(1),
+		RunE: func(cmd *cobra.Command, args []string) error {
+			return a.runRegime(args[0], o)
+		},
+	}
+	addInputFlags(cmd, &o.in)
+	f := cmd.Flags()
+	f.IntVar(&o.lag, "lag", 0, "delay in samples (default: chosen from the mutual information)")
+	f.IntVar(&o.dim, "dim", 0, "embedding dimension (default: chosen by false neighbours and Cao's E1)")
+	f.IntVar(&o.theiler, "theiler", 0, "Theiler window in samples (default: 1/e decay time of the autocorrelation)")
+	f.IntVar(&o.surrogates, "surrogates", 19, "number of IAAFT surrogates (19: one-sided 5 %; 39: two-sided 5 %)")
+	f.BoolVar(&o.noLyap, "no-lyapunov", false, "leave the Lyapunov exponent out of the evidence")
+	f.StringVar(&o.plot, "plot", "", "draw the evidence: the spectrum with its lines and the surrogate distributions (.png or .svg)")
+	return cmd
+}
+
+type regimeParams struct {
+	Column     string `json:"column"`
+	Lag        int    `json:"lag"`
+	LagMethod  string `json:"lag_method"`
+	Dim        int    `json:"dim"`
+	DimMethod  string `json:"dim_method"`
+	Theiler    int    `json:"theiler"`
+	Surrogates int    `json:"surrogates"`
+	Subsample  int    `json:"zero_one_subsample"`
+	Seed       uint64 `json:"seed"`
+}
+
+type regimeResult struct {
+	Regime     string                 `json:"regime"`
+	Confidence float64                `json:"confidence"`
+	Rule       string                 `json:"rule"`
+	Evidence   map[string]regime.Item `json:"evidence"`
+	Tests      []*regime.RankTest     `json:"surrogate_tests"`
+	Cautions   []string               `json:"cautions"`
+}
+
+func (a *app) runRegime(path string, o *regimeOptions) error {
+	if err := checkFigurePath(o.plot); err != nil {
+		return err
+	}
+	if o.lag < 0 || o.dim < 0 || o.theiler < 0 || o.surrogates < 1 {
+		return usagef("regime: want --lag, --dim, --theiler ≥ 0 and --surrogates ≥ 1")
+	}
+	s, in, err := a.loadInput(path, &o.in)
+	if err != nil {
+		return err
+	}
+	if err := series.CheckVariable(s.Values); err != nil {
+		return err
+	}
+	an, err := regime.Analyze(s.Values, s.Dt, regime.Options{Lag: o.lag, Dim: o.dim, Theiler: o.theiler,
+		Surrogates: o.surrogates, Seed: a.global.Seed, NoLyapunov: o.noLyap, Threads: a.threads(),
+		Progress: a.progress("surrogate tests")})
+	if err != nil {
+		return noAnswer(fmt.Errorf("regime: %s: %w", path, err))
+	}
+	ev, v := an.Evidence, an.Verdict
+	if an.LagMethod != "given" {
+		a.notef("lag %d chosen (%s)", ev.Lag, an.LagMethod)
+	}
+	if an.DimMethod != "given" {
+		a.notef("dimension %d chosen (%s)", ev.Dim, an.DimMethod)
+	}
+	if o.theiler == 0 {
+		a.notef("Theiler window %d samples (autocorrelation 1/e decay time)", ev.Theiler)
+	}
+	if o.plot != "" {
+		rows, err := evidencePlots(an, figureName(path))
+		if err != nil {
+			return err
+		}
+		if err := writeFigureFile(o.plot, path, 11*vg.Inch, 4*vg.Inch, rows); err != nil {
+			return err
+		}
+	}
+	sub := 0
+	if ev.ZeroOne != nil {
+		sub = ev.ZeroOne.Subsample
+	}
+	if a.global.JSON {
+		p := regimeParams{Column: s.Name, Lag: ev.Lag, LagMethod: an.LagMethod, Dim: ev.Dim, DimMethod: an.DimMethod,
+			Theiler: ev.Theiler, Surrogates: o.surrogates, Subsample: sub, Seed: a.global.Seed}
+		return a.emitJSON("regime", in, p, regimeResult{Regime: v.Regime, Confidence: v.Confidence, Rule: v.Rule,
+			Evidence: v.Evidence, Tests: []*regime.RankTest{ev.Prediction, ev.Reversal}, Cautions: v.Cautions})
+	}
+	rows := [][]string{
+		{"file", path},
+		{"regime", v.Regime},
+		{"confidence", strconv.FormatFloat(v.Confidence, 'f', 2, 64)},
+		{"rule", v.Rule},
+		{"embedding", fmt.Sprintf("lag %d (%s), dimension %d (%s), Theiler %d", ev.Lag, an.LagMethod, ev.Dim, an.DimMethod, ev.Theiler)},
+		{"", ""},
+		{"evidence", "points to (weight): detail"},
+	}
+	keys := make([]string, 0, len(v.Evidence))
+	for k := range v.Evidence {
+		keys = append(keys, k)
+	}
+	slices.Sort(keys)
+	for _, k := range keys {
+		it := v.Evidence[k]
+		rows = append(rows, []string{"  " + k, fmt.Sprintf("%s (%g): %s", it.PointsTo, it.Weight, it.Detail)})
+	}
+	if err := a.table(rows); err != nil {
+		return err
+	}
+	for _, c := range v.Cautions {
+		fmt.Fprintf(a.stdout, "caution: %s\n", c)
+	}
+	return nil
+}
+
+// evidencePlots draws the spectrum with its significant lines and the two surrogate tests
+// (surrogate values as points, the data as a vertical line).
+func evidencePlots(an *regime.Analysis, name string) ([][]*plot.Plot, error) {
+	ev := an.Evidence
+	var row []*plot.Plot
+	if l := ev.Lines; l != nil {
+		p := plot.New()
+		p.Title.Text = fmt.Sprintf("%s: spectrum (%s) → %s", name, l.Kind, an.Verdict.Regime)
+		p.X.Label.Text = "frequency (cycles per time unit)"
+		p.Y.Label.Text = "power density (log)"
+		p.Y.Scale = plot.LogScale{}
+		p.Y.Tick.Marker = plot.LogTicks{Prec: -1}
+		var pts plotter.XYs
+		floor := 0.0
+		for k, pw := range l.Spectrum.Power {
+			if k > 0 && pw > 0 {
+				pts = append(pts, plotter.XY{X: l.Spectrum.Freq[k], Y: pw})
+				if floor == 0 || pw < floor {
+					floor = pw
+				}
+			}
+		}
+		if len(pts) > 1 {
+			ln, err := plotter.NewLine(pts)
+			if err != nil {
+				return nil, err
+			}
+			ln.Color = palette(0)
+			p.Add(ln)
+		}
+		var pk plotter.XYs
+		for _, q := range l.Peaks {
+			pk = append(pk, plotter.XY{X: q.Freq, Y: q.Power})
+		}
+		if len(pk) > 0 {
+			sc, err := plotter.NewScatter(pk)
+			if err != nil {
+				return nil, err
+			}
+			sc.Color = palette(1)
+			p.Add(sc)
+			p.Legend.Add("significant lines", sc)
+		}
+		row = append(row, p)
+	}
+	for _, t := range []*regime.RankTest{ev.Prediction, ev.Reversal} {
+		if t == nil {
+			continue
+		}
+		p := plot.New()
+		p.Title.Text = fmt.Sprintf("%s: p = %.3g", t.Name, t.P)
+		p.X.Label.Text = t.Name
+		p.Y.Label.Text = "surrogate number"
+		var pts plotter.XYs
+		for i, s := range t.Surrogates {
+			pts = append(pts, plotter.XY{X: s, Y: float64(i + 1)})
+		}
+		sc, err := plotter.NewScatter(pts)
+		if err != nil {
+			return nil, err
+		}
+		sc.Color = color.Gray{Y: 90}
+		p.Add(sc)
+		p.Legend.Add("IAAFT surrogates", sc)
+		d, err := plotter.NewLine(plotter.XYs{{X: t.Data, Y: 0}, {X: t.Data, Y: float64(len(t.Surrogates) + 1)}})
+		if err != nil {
+			return nil, err
+		}
+		d.Color, d.Width = palette(1), vg.Points(2)
+		p.Add(d)
+		p.Legend.Add("data", d)
+		p.Legend.Top = true
+		row = append(row, p)
+	}
+	return [][]*plot.Plot{row}, nil
+}
