@@ -42,6 +42,9 @@ an answer (the message says why), 2 bad usage or bad input (the message says wha
 		newFractalCmd(a),
 		newNullsCmd(a),
 		newRegimeCmd(a),
+		newSectionCmd(a),
+		newSymbolsCmd(a),
+		newEntropyCmd(a),
 	)
 	return root
 }
