@@ -21,6 +21,7 @@ type entropyOptions struct {
 	estimator   string
 	permutation int
 	delay       int
+	lzMax       int
 }
 
 func newEntropyCmd(a *app) *cobra.Command {
@@ -59,6 +60,7 @@ normalised by log2(D!).`,
 	f.StringVar(&o.estimator, "estimator", "grassberger", "block-entropy estimator: grassberger, miller-madow or plugin")
 	f.IntVar(&o.permutation, "permutation", 0, "permutation entropy of order D (2 … 10) of a numeric signal instead of a symbol stream")
 	f.IntVar(&o.delay, "delay", 1, "with --permutation: spacing of the samples of a pattern")
+	f.IntVar(&o.lzMax, "lz-max", 20_000_000, "Lempel–Ziv complexity of the first N symbols only (it keeps them in memory, about 9·N bytes); block entropies always use the whole stream")
 	return cmd
 }
 
@@ -68,6 +70,7 @@ type entropyParams struct {
 	RateLength    int    `json:"rate_length"`
 	Alphabet      string `json:"alphabet"`
 	Extrapolation string `json:"extrapolation"`
+	LZMax         int    `json:"lz_max"`
 }
 
 type lz76JSON struct {
@@ -136,8 +139,13 @@ func (a *app) runEntropy(path string, o *entropyOptions) error {
 	if err != nil {
 		return usagef("entropy: %v", err)
 	}
-	// block counts stream; LZ76 needs the whole sequence (one byte per symbol)
-	all := make([]uint8, 0, min(sc.Count, 1<<28))
+	// block counts stream over the whole stream; LZ76 needs its symbols in memory, so it
+	// keeps at most --lz-max of them
+	if o.lzMax < 2 {
+		return usagef("entropy: --lz-max must be ≥ 2")
+	}
+	all := make([]uint8, 0, min(sc.Count, int64(o.lzMax)))
+	var total int64
 	buf := make([]uint8, 1<<15)
 	for {
 		n, err := r.Read(buf)
@@ -145,7 +153,10 @@ func (a *app) runEntropy(path string, o *entropyOptions) error {
 			if err := bc.Add(buf[:n]); err != nil {
 				return err
 			}
-			all = append(all, buf[:n]...)
+			total += int64(n)
+			if room := o.lzMax - len(all); room > 0 {
+				all = append(all, buf[:min(n, room)]...)
+			}
 		}
 		if err == io.EOF {
 			break
@@ -166,13 +177,16 @@ func (a *app) runEntropy(path string, o *entropyOptions) error {
 		return noAnswer(fmt.Errorf("entropy: %s: %w", path, err))
 	}
 	cautions := res.Cautions
+	if int64(len(all)) < total {
+		cautions = append(cautions, fmt.Sprintf("the Lempel–Ziv complexity is of the first %d of %d symbols (--lz-max)", len(all), total))
+	}
 	if cautions == nil {
 		cautions = []string{}
 	}
-	in := &inputInfo{Path: path, SHA256: hex.EncodeToString(h.Sum(nil)), Samples: len(all), Dt: 1}
+	in := &inputInfo{Path: path, SHA256: hex.EncodeToString(h.Sum(nil)), Samples: int(total), Dt: 1}
 	if a.global.JSON {
 		return a.emitJSON("entropy", in,
-			entropyParams{Estimator: res.Estimator, MaxLength: maxL, RateLength: res.RateLength, Alphabet: sc.Alphabet, Extrapolation: res.Extrapolation},
+			entropyParams{Estimator: res.Estimator, MaxLength: maxL, RateLength: res.RateLength, Alphabet: sc.Alphabet, Extrapolation: res.Extrapolation, LZMax: o.lzMax},
 			entropyResult{EntropyRate: res.EntropyRate, ExcessEntropy: res.ExcessEntropy, BlockEntropies: res.Blocks,
 				EntropyRates: res.Rates, LZ76: lz.Normalized, LZ76Detail: lz76JSON{Phrases: lz.Phrases, Normalized: lz.Normalized},
 				Partition: sc.Partition, Source: sc.Source, Cautions: cautions})
@@ -180,7 +194,7 @@ func (a *app) runEntropy(path string, o *entropyOptions) error {
 	g := func(v float64) string { return strconv.FormatFloat(v, 'f', 4, 64) }
 	rows := [][]string{
 		{"file", path},
-		{"symbols", fmt.Sprintf("%d over %q (%s partition of %s)", len(all), sc.Alphabet, sc.Partition.Kind, sc.Source.Path)},
+		{"symbols", fmt.Sprintf("%d over %q (%s partition of %s)", total, sc.Alphabet, sc.Partition.Kind, sc.Source.Path)},
 		{"entropy rate", g(res.EntropyRate) + " bits/symbol at L = " + strconv.Itoa(res.RateLength)},
 		{"excess entropy", g(res.ExcessEntropy) + " bits"},
 		{"LZ76", fmt.Sprintf("%s normalised (%d phrases)", g(lz.Normalized), lz.Phrases)},
