@@ -208,3 +208,37 @@ func TestDecideRecord(t *testing.T) {
 		t.Errorf("sine: %s", r.Reason)
 	}
 }
+
+func TestSearchQuantised(t *testing.T) {
+	// logistic iterates rounded to 1/500: many repeated values; the cut must still be found
+	// at 0.5 ± 0.02 (CHECKS.md §9 generating partition, E).
+	x := iterate(logisticMap, 0.3, 20000)
+	for i, v := range x {
+		x[i] = math.Round(v*500) / 500
+	}
+	r, err := Search(x, SearchOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if math.Abs(r.Thresholds[0]-0.5) > 0.02 {
+		t.Errorf("quantised logistic: cut %.4f, want 0.5 ± 0.02 (score %.4f)", r.Thresholds[0], r.Score)
+	}
+}
+
+func TestSearchNoiseCaution(t *testing.T) {
+	// i.i.d. uniform noise has no generating partition in a 2-dimensional return map: its
+	// symbolic neighbours are mostly false, so the search must say so (common practice).
+	x := iterate(func(float64) float64 { return 0 }, 0, 5000)
+	state := uint64(12345)
+	for i := range x {
+		state = state*6364136223846793005 + 1442695040888963407
+		x[i] = float64(state>>11) / (1 << 53)
+	}
+	r, err := Search(x, SearchOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if r.Score < 0.1 || len(r.Cautions) == 0 {
+		t.Errorf("noise: SFNN %.3f, cautions %v; want > 0.1 with a caution", r.Score, r.Cautions)
+	}
+}

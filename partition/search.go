@@ -103,8 +103,23 @@ func newScorer(x []float64, k int, opt SearchOptions) (*scorer, error) {
 	word = min(word, maxW, n/4)
 	s := &scorer{x: x, k: k, dim: dim, lag: lag, ratio: ratio, word: word,
 		np: min(ne, n-word+1), scale: make([]float64, ne)}
+	// repeated values (quantised records) give zero neighbour distances: floor the scale at a
+	// tenth of the median positive one so that ties do not make every neighbour false
+	pos := make([]float64, 0, ne)
 	for i := 0; i < ne; i++ {
 		s.scale[i] = dist[i*kn+kn-1]
+		if d := s.scale[i]; d > 0 && !math.IsInf(d, 0) {
+			pos = append(pos, d)
+		}
+	}
+	if len(pos) > 0 {
+		slices.Sort(pos)
+		floor := 0.1 * pos[len(pos)/2]
+		for i, d := range s.scale {
+			if !(d >= floor) {
+				s.scale[i] = floor
+			}
+		}
 	}
 	s.pow = make([]uint64, word+1)
 	s.pow[0] = 1
