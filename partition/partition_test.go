@@ -3,6 +3,8 @@ package partition
 import (
 	"math"
 	"testing"
+
+	"unfold/models"
 )
 
 func iterate(f func(float64) float64, x0 float64, n int) []float64 {
@@ -18,10 +20,22 @@ func iterate(f func(float64) float64, x0 float64, n int) []float64 {
 	return out
 }
 
-func logisticMap(x float64) float64 { return 4 * x * (1 - x) }
+// fromModel turns a one-dimensional map of package models into a function.
+func fromModel(m models.Map) func(float64) float64 {
+	dst, src := make([]float64, 1), make([]float64, 1)
+	return func(x float64) float64 {
+		src[0] = x
+		m.Step(dst, src)
+		return dst[0]
+	}
+}
 
-// tent map with μ = 1.99 (CHECKS.md §1: μ = 2 collapses in floating point; use μ below 2).
-func tentMap(x float64) float64 { return 1.99 * math.Min(x, 1-x) }
+var (
+	// logistic map r = 4 (models.Logistic; CHECKS.md §13)
+	logisticMap = fromModel(models.Logistic{R: 4})
+	// tent map with μ = 1.99 (CHECKS.md §1: μ = 2 collapses in floating point; use μ below 2)
+	tentMap = fromModel(models.Tent{Mu: 1.99})
+)
 
 // skewed is our own unimodal map, conjugate to the logistic map r = 4 by φ(x) = x²:
 // g(x) = sqrt(4x²(1−x²)) = 2x·sqrt(1−x²), with its maximum at x = 1/√2 ≈ 0.7071 (exact: the

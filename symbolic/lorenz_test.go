@@ -4,35 +4,20 @@ import (
 	"math"
 	"testing"
 
+	"unfold/models"
 	"unfold/partition"
 )
 
-// lorenzX integrates the Lorenz system (10, 28, 8/3) by RK4 with step h from (1, 1, 1), drops
-// t = 50 and returns x and z every step (CHECKS.md §13).
+// lorenzXZ integrates the Lorenz system (10, 28, 8/3) of package models by RK4 with step h
+// from (1, 1, 1), drops t = 50 and returns x and z every step (CHECKS.md §13).
 func lorenzXZ(n int, h float64) (xs, zs []float64) {
-	const sigma, rho, beta = 10.0, 28.0, 8.0 / 3
-	f := func(s [3]float64) [3]float64 {
-		return [3]float64{sigma * (s[1] - s[0]), s[0]*(rho-s[2]) - s[1], s[0]*s[1] - beta*s[2]}
-	}
-	add := func(a, b [3]float64, c float64) [3]float64 {
-		return [3]float64{a[0] + c*b[0], a[1] + c*b[1], a[2] + c*b[2]}
-	}
-	s := [3]float64{1, 1, 1}
-	step := func() {
-		k1 := f(s)
-		k2 := f(add(s, k1, h/2))
-		k3 := f(add(s, k2, h/2))
-		k4 := f(add(s, k3, h))
-		for i := range s {
-			s[i] += h / 6 * (k1[i] + 2*k2[i] + 2*k3[i] + k4[i])
-		}
-	}
-	for i := 0; i < int(50/h); i++ {
-		step()
-	}
+	f := models.Lorenz{Sigma: 10, Rho: 28, Beta: 8.0 / 3}
+	rk := models.NewRK4(f)
+	s := []float64{1, 1, 1}
+	rk.Advance(s, h, int(50/h))
 	xs, zs = make([]float64, n), make([]float64, n)
 	for i := range xs {
-		step()
+		rk.Step(s, h)
 		xs[i], zs[i] = s[0], s[2]
 	}
 	return xs, zs
