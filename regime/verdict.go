@@ -114,7 +114,7 @@ func Decide(ev *Evidence) *Verdict {
 	k := math.NaN()
 	if z := ev.ZeroOne; z != nil {
 		k = z.K
-		it := Item{Value: z.K, Weight: 2, Detail: fmt.Sprintf("0-1 test K = %.3f (median over c, %d samples, every %d-th sample)", z.K, z.Samples, z.Subsample)}
+		it := Item{Value: z.K, Weight: 2, Detail: fmt.Sprintf("0-1 test K = %.3f (median over c, %d samples, subsampling step %d)", z.K, z.Samples, z.Subsample)}
 		if z.K < 0.5 {
 			it.PointsTo = Periodic + "|" + Quasiperiodic
 		} else {
@@ -332,15 +332,18 @@ func Analyze(x []float64, dt float64, opt Options) (*Analysis, error) {
 	if ev.Dim <= 0 {
 		ev.Dim, an.DimMethod = 3, "default-3 (no rule applied)"
 	}
-	if ev.Lag >= 10 {
-		ev.Cautions = append(ev.Cautions, fmt.Sprintf("oversampled: the delay is %d samples; the 0-1 test ran on every %d-th sample as Gottwald & Melbourne (2009) advise", ev.Lag, ev.Lag))
+	// Oversampled flows are subsampled for the 0-1 test (Gottwald & Melbourne 2009): every
+	// ⌈τ/4⌉-th sample, so consecutive samples differ while enough samples remain (judgement).
+	sub := max(1, (ev.Lag+3)/4)
+	if ev.Lag >= 8 {
+		ev.Cautions = append(ev.Cautions, fmt.Sprintf("oversampled: the delay is %d samples; the 0-1 test used a subsampling step of %d samples as Gottwald & Melbourne (2009) advise", ev.Lag, sub))
 	}
 	// Spectrum and lines (whole record).
 	if l, err := LineAnalysis(x, dt, LineOptions{}); err == nil {
 		ev.Lines = l
 	}
 	// 0-1 test, subsampled by the delay for flows.
-	if z, err := ZeroOne(x, ZeroOneOptions{Subsample: max(1, ev.Lag), Seed: opt.Seed}); err == nil {
+	if z, err := ZeroOne(x, ZeroOneOptions{Subsample: sub, Seed: opt.Seed}); err == nil {
 		ev.ZeroOne = z
 	}
 	// Largest Lyapunov exponent.

@@ -48,7 +48,8 @@ func newRegimeCmd(a *app) *cobra.Command {
 		Use:   "regime FILE",
 		Short: "Verdict: periodic, quasiperiodic, chaotic, stochastic or undetermined, with evidence and cautions",
 		Long: `regime gathers the evidence — Welch spectrum and line analysis, the 0-1 test for chaos
-(Gottwald & Melbourne 2004, 2009; oversampled flows are subsampled by the delay first), IAAFT
+(Gottwald & Melbourne 2004, 2009; oversampled flows are first subsampled to every ⌈τ/4⌉-th
+sample, τ the delay), IAAFT
 surrogate tests (Schreiber & Schmitz 1996) of a nonlinear prediction error (Farmer & Sidorowich
 1987) and time-reversal asymmetry, the largest Lyapunov exponent (Kantz 1994) with its interval,
 the correlation dimension D2 and its saturation, and Cao's E2 — and decides the regime.
@@ -188,7 +189,7 @@ func evidencePlots(an *regime.Analysis, name string) ([][]*plot.Plot, error) {
 		p.X.Label.Text = "frequency (cycles per time unit)"
 		p.Y.Label.Text = "power density (log)"
 		p.Y.Scale = plot.LogScale{}
-		p.Y.Tick.Marker = plot.LogTicks{Prec: -1}
+		p.Y.Tick.Marker = plot.LogTicks{Prec: 1}
 		var pts plotter.XYs
 		floor := 0.0
 		for k, pw := range l.Spectrum.Power {
