@@ -393,6 +393,24 @@ func TestPermutationLogistic(t *testing.T) {
 	if math.Abs(p.Bits*math.Ln2-1.489750) > 0.003 {
 		t.Errorf("H(3) = %.5f nats, want 1.489750", p.Bits*math.Ln2)
 	}
+	// CHECKS.md §11 (C, N = 2·10⁶): observed patterns 2, 5, 12, 31 for m = 2 … 5, and
+	// H(m)/(m−1) = 0.6366, 0.7450, 0.7831, 0.8137 nats (±0.005).
+	for _, c := range []struct {
+		m        int
+		observed int
+		perStep  float64
+	}{{2, 2, 0.6366}, {3, 5, 0.7450}, {4, 12, 0.7831}, {5, 31, 0.8137}} {
+		q, err := PermutationEntropy(x, c.m, 1)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if q.Observed != c.observed {
+			t.Errorf("order %d: %d patterns observed, want %d", c.m, q.Observed, c.observed)
+		}
+		if got := q.PerSymbol * math.Ln2; math.Abs(got-c.perStep) > 0.005 {
+			t.Errorf("order %d: H/(m−1) = %.4f nats, want %.4f", c.m, got, c.perStep)
+		}
+	}
 }
 
 func writeStream(t *testing.T, s []uint8, alphabet string) (stream []byte, sidecar []byte) {
