@@ -402,6 +402,7 @@ func (pc *pairCounter) leafPairs(na *node, b int32, kl int, h []int64) {
 	nb := &ix.nodes[b]
 	sb := int64(nb.end - nb.start)
 	K := len(pc.ts)
+	euclid := ix.norm == Euclidean
 	rows := ix.pts[int(nb.start)*dim : int(nb.end)*dim]
 	for p := int(na.start); p < int(na.end); p++ {
 		x := ix.pts[p*dim : p*dim+dim]
@@ -416,8 +417,23 @@ func (pc *pairCounter) leafPairs(na *node, b int32, kl int, h []int64) {
 			continue
 		}
 		// Keys of this point's pairs lie in bins k1 … k2 (k2 may be K: beyond every radius).
-		for c := 0; c < len(rows); c += dim {
-			key := ix.key(x, rows[c:c+dim])
+		// The key loops repeat Index.key (same operations, same order) so that they inline.
+		for c := 0; c+dim <= len(rows); c += dim {
+			r := rows[c : c+dim]
+			r = r[:len(x)]
+			var key float64
+			if euclid {
+				for d, v := range x {
+					t := v - r[d]
+					key += float64(t * t)
+				}
+			} else {
+				for d, v := range x {
+					if t := math.Abs(v - r[d]); t > key {
+						key = t
+					}
+				}
+			}
 			k := k1
 			for k < k2 && pc.ts[k] < key {
 				k++
