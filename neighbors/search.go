@@ -275,9 +275,11 @@ func (s *Searcher) insert(c cand) {
 	} else {
 		b[len(b)-1] = c
 	}
-	for i := len(b) - 1; i > 0 && cmpCand(b[i], b[i-1]) < 0; i-- {
-		b[i], b[i-1] = b[i-1], b[i]
+	i := len(b) - 1
+	for ; i > 0 && (c.key < b[i-1].key || (c.key == b[i-1].key && c.idx < b[i-1].idx)); i-- {
+		b[i] = b[i-1]
 	}
+	b[i] = c
 	s.best = b
 	if len(b) == s.k {
 		s.worstKey, s.worstIdx = b[len(b)-1].key, int(b[len(b)-1].idx)
