@@ -103,3 +103,20 @@ func TestWhiteNoiseNotSaturated(t *testing.T) {
 		t.Errorf("uniform noise m=1 D2 = %.3f (fitted %v), want 1 ± 0.1", c.D2, c.Fitted)
 	}
 }
+
+func TestLogisticD2(t *testing.T) {
+	x := simulate(t, "logistic", 8000, 0)
+	r, err := CorrelationDimension(x, Options{Lag: 1, MaxDim: 4, Theiler: 1, Threads: 2})
+	if err != nil {
+		t.Fatal(err)
+	}
+	// Logistic r = 4: D2 = 1 with logarithmic corrections; assert [0.9, 1.05] (CHECKS.md §4,
+	// tag E with caution).
+	if !(r.D2 >= 0.9 && r.D2 <= 1.05) {
+		t.Errorf("logistic r = 4 D2 = %.3f, want [0.9, 1.05]", r.D2)
+	}
+	// The Takens estimate is a second opinion on the same scaling (Takens 1985): within 0.15.
+	if math.Abs(r.Takens-r.D2) > 0.15 {
+		t.Errorf("Takens %.3f far from D2 %.3f", r.Takens, r.D2)
+	}
+}

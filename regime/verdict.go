@@ -89,7 +89,12 @@ func Decide(ev *Evidence) *Verdict {
 		minS = 3
 	}
 	v := &Verdict{Evidence: map[string]Item{}, Cautions: append([]string(nil), ev.Cautions...)}
-	add := func(name string, it Item) { v.Evidence[name] = it }
+	add := func(name string, it Item) {
+		if math.IsNaN(it.Value) || math.IsInf(it.Value, 0) {
+			return // a test that produced no number is left out of the table
+		}
+		v.Evidence[name] = it
+	}
 
 	lineKind := LineKind("")
 	if l := ev.Lines; l != nil {
@@ -128,9 +133,15 @@ func Decide(ev *Evidence) *Verdict {
 		rej := p.Rejects(alpha, minS)
 		nonlinear = nonlinear || rej
 		it := Item{Value: p.Data, Weight: 3, Detail: fmt.Sprintf("prediction error %.3g against IAAFT surrogates %s: p = %.3g, %.1f σ", p.Data, rangeString(p.Surrogates), p.P, p.Sigmas)}
-		if rej {
+		switch {
+		case rej:
 			it.PointsTo = Chaotic + "|" + Periodic + "|" + Quasiperiodic
-		} else {
+		case maxOf(p.Surrogates) < 0.1:
+			// The surrogates, which keep only the spectrum, predict almost perfectly too: the
+			// spectrum alone makes the signal predictable, as for a line spectrum.
+			it.PointsTo = Periodic + "|" + Quasiperiodic
+			it.Detail += "; the surrogates predict as well: the spectrum alone makes the signal predictable"
+		default:
 			it.PointsTo = Stochastic
 		}
 		add("prediction_error", it)
@@ -171,8 +182,8 @@ func Decide(ev *Evidence) *Verdict {
 		switch {
 		case !d.Saturated:
 			it.PointsTo = Stochastic
-		case math.Abs(d.D2-1) < 0.15:
-			it.PointsTo = Periodic
+		case d.D2 < 0.5 || math.Abs(d.D2-1) < 0.15:
+			it.PointsTo = Periodic // a finite set of points (a map's cycle) or a closed curve
 		case math.Abs(d.D2-math.Round(d.D2)) < 0.15:
 			it.PointsTo = Quasiperiodic + "|" + Chaotic
 		default:
@@ -320,10 +331,16 @@ func Analyze(x []float64, dt float64, opt Options) (*Analysis, error) {
 	}
 	dc, err := embed.ChooseDimension(xa, embed.DimOptions{Lag: ev.Lag, Theiler: ev.Theiler, MaxDim: 8, Threads: threads})
 	if err == nil {
-		nl := dc.NoiseLike
-		ev.CaoNoiseLike = &nl
+		finite := 0
 		for _, c := range dc.Cao {
-			ev.CaoE2Dev = math.Max(ev.CaoE2Dev, math.Abs(c.E2-1))
+			if !math.IsNaN(c.E2) && !math.IsInf(c.E2, 0) {
+				ev.CaoE2Dev = math.Max(ev.CaoE2Dev, math.Abs(c.E2-1))
+				finite++
+			}
+		}
+		if finite > 0 {
+			nl := dc.NoiseLike
+			ev.CaoNoiseLike = &nl
 		}
 		if ev.Dim <= 0 {
 			ev.Dim, an.DimMethod = dc.Dimension, dc.Method
@@ -393,4 +410,12 @@ func Analyze(x []float64, dt float64, opt Options) (*Analysis, error) {
 	}
 	an.Verdict = Decide(ev)
 	return an, nil
+}
+
+func maxOf(v []float64) float64 {
+	m := math.Inf(-1)
+	for _, x := range v {
+		m = math.Max(m, x)
+	}
+	return m
 }

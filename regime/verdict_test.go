@@ -73,3 +73,36 @@ func TestAnalyzeThreadIndependent(t *testing.T) {
 		t.Errorf("verdict differs between 1 and 2 threads:\n%+v\n%+v", a1.Verdict, a2.Verdict)
 	}
 }
+
+// TestDecideRule exercises the decision rule directly (package comment).
+func TestDecideRule(t *testing.T) {
+	notRejected := &RankTest{Data: 0.95, Surrogates: []float64{0.9, 1, 1.1}, P: 0.5, Sigmas: 0.5}
+	rejected := &RankTest{Data: 0.1, Surrogates: []float64{0.9, 1, 1.1}, P: 0.05, Sigmas: 10}
+	broadband := &Lines{Kind: LinesBroadband}
+	chaos := &ZeroOneResult{K: 0.99}
+	// Step 2: a signal the surrogates cannot tell from the linear null is stochastic whatever
+	// its λ1 says (issue 6).
+	v := Decide(&Evidence{N: 5000, Dt: 1, Lag: 1, Stationary: true, Lines: broadband, ZeroOne: chaos,
+		Prediction: notRejected, Reversal: notRejected, Lyapunov: &Exponent{Value: 0.5, Lo: 0.4, Hi: 0.6}})
+	if v.Regime != Stochastic {
+		t.Errorf("null not rejected, λ1 > 0: %s, want stochastic", v.Regime)
+	}
+	// Step 3: rejected null, K ≈ 1 and λ1 > 0: chaotic.
+	v = Decide(&Evidence{N: 5000, Dt: 1, Lag: 1, Stationary: true, Lines: broadband, ZeroOne: chaos,
+		Prediction: rejected, Reversal: notRejected, Lyapunov: &Exponent{Value: 0.5, Lo: 0.4, Hi: 0.6}})
+	if v.Regime != Chaotic || !(v.Confidence > 0.5) {
+		t.Errorf("rejected null, K ≈ 1, λ1 > 0: %s (%.2f), want chaotic", v.Regime, v.Confidence)
+	}
+	// Step 3: rejected null but λ1 ≤ 0: undetermined, confidence 0.
+	v = Decide(&Evidence{N: 5000, Dt: 1, Lag: 1, Stationary: true, Lines: broadband, ZeroOne: chaos,
+		Prediction: rejected, Lyapunov: &Exponent{Value: -0.2, Lo: -0.3, Hi: -0.1}})
+	if v.Regime != Undetermined || v.Confidence != 0 {
+		t.Errorf("λ1 < 0 with K ≈ 1: %s (%.2f), want undetermined (0)", v.Regime, v.Confidence)
+	}
+	// Step 1: a line spectrum with one fundamental and K ≈ 0 is periodic.
+	v = Decide(&Evidence{N: 5000, Dt: 1, Stationary: true, Lines: &Lines{Kind: LinesPeriodic, LineFraction: 1, Fundamentals: []float64{0.1}},
+		ZeroOne: &ZeroOneResult{K: 0.01}})
+	if v.Regime != Periodic || v.Confidence != 1 {
+		t.Errorf("lines + K ≈ 0: %s (%.2f), want periodic (1)", v.Regime, v.Confidence)
+	}
+}

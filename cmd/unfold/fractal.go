@@ -132,7 +132,7 @@ type fractalResult struct {
 	ScalingRange   [2]float64   `json:"scaling_range"`
 	Saturated      bool         `json:"saturated"`
 	Dimension      int          `json:"dimension"`
-	Takens         float64      `json:"takens"`
+	Takens         *float64     `json:"takens"`
 	PerDimension   []fractalDim `json:"per_dimension"`
 	CorrelationSum []csumPoint  `json:"correlation_sum"`
 	Cautions       []string     `json:"cautions"`
@@ -209,7 +209,7 @@ func (a *app) runFractal(path string, o *fractalOptions) error {
 		return noAnswer(fmt.Errorf("fractal: %s: %w", path, derr))
 	}
 	res := fractalResult{D2: r.D2, Interval: [2]float64{r.Lo, r.Hi}, ScalingRange: [2]float64{r.RLo, r.RHi},
-		Saturated: r.Saturated, Dimension: r.Dim, Takens: r.Takens, Cautions: cautions, CorrelationSum: []csumPoint{}}
+		Saturated: r.Saturated, Dimension: r.Dim, Takens: finitePtr(r.Takens), Cautions: cautions, CorrelationSum: []csumPoint{}}
 	for _, c := range r.Curves {
 		fd := fractalDim{Dimension: c.Dim}
 		if c.Fitted {
@@ -319,4 +319,12 @@ func palette(i int) color.Color {
 	cols := []color.RGBA{{31, 119, 180, 255}, {214, 39, 40, 255}, {44, 160, 44, 255}, {148, 103, 189, 255},
 		{255, 127, 14, 255}, {140, 86, 75, 255}, {227, 119, 194, 255}, {23, 190, 207, 255}, {127, 127, 127, 255}, {188, 189, 34, 255}}
 	return cols[i%len(cols)]
+}
+
+// finitePtr returns &v, or nil (JSON null) when v is NaN or infinite.
+func finitePtr(v float64) *float64 {
+	if math.IsNaN(v) || math.IsInf(v, 0) {
+		return nil
+	}
+	return &v
 }
