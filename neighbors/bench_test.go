@@ -7,6 +7,7 @@ import (
 	"slices"
 	"strings"
 	"testing"
+	"time"
 
 	"github.com/kyroy/kdtree"
 	"github.com/kyroy/kdtree/points"
@@ -128,6 +129,11 @@ func BenchmarkBruteAllKNN(b *testing.B) {
 							best = bruteKBest(pts, dim, norm, i, k, benchTheiler, best)
 						}
 					}
+					ix, err := Build(pts, dim, norm)
+					if err != nil {
+						b.Fatal(err)
+					}
+					reportSpeedup(b, func() { ix.AllKNN(k, benchTheiler, 0, 0, 1, nil) })
 				})
 			}
 		}
@@ -187,6 +193,11 @@ func BenchmarkKyroy(b *testing.B) {
 						tree.KNN(kp[i], 2)
 					}
 				}
+				ix, err := Build(pts, dim, Euclidean)
+				if err != nil {
+					b.Fatal(err)
+				}
+				reportSpeedup(b, func() { ix.AllKNN(1, 0, 0, 0, 1, nil) })
 			})
 			b.Run(fmt.Sprintf("N=%d/m=%d/ours", n, dim), func(b *testing.B) {
 				ix, err := Build(pts, dim, Euclidean)
@@ -264,7 +275,25 @@ func BenchmarkBrutePairCounts(b *testing.B) {
 						}
 					}
 				}
+				reportSpeedup(b, func() { ix.PairCounts(radii, benchTheiler, 1, nil) })
 			})
 		}
 	}
+}
+
+// reportSpeedup reports the metric "speedup": the time per op of the reference benchmark b
+// divided by the time of one call of ours (the best of three, one thread), measured in the same
+// run.
+func reportSpeedup(b *testing.B, ours func()) {
+	if b.N == 0 {
+		return
+	}
+	ref := float64(b.Elapsed().Nanoseconds()) / float64(b.N)
+	best := math.Inf(1)
+	for range 3 {
+		t0 := time.Now()
+		ours()
+		best = min(best, float64(time.Since(t0).Nanoseconds()))
+	}
+	b.ReportMetric(ref/best, "speedup")
 }
