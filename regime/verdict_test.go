@@ -106,3 +106,44 @@ func TestDecideRule(t *testing.T) {
 		t.Errorf("lines + K ≈ 0: %s (%.2f), want periodic (1)", v.Regime, v.Confidence)
 	}
 }
+
+// TestNullRejectionRate: for linear Gaussian AR(1) data the rank test of the prediction error
+// against 19 IAAFT surrogates rejects at about α = 5 % (Theiler et al. 1992; CHECKS.md §7,
+// "null check", tag E statistical); Hénon data are rejected every time. With 20 records the
+// count of rejections is Binomial(20, 0.05): P(≥ 5) ≈ 0.3 %.
+func TestNullRejectionRate(t *testing.T) {
+	if testing.Short() {
+		t.Skip("statistical null check")
+	}
+	po := PredictOptions{Lag: 1, Dim: 3, Horizon: 1, References: 500}
+	rejects := func(x []float64, seed uint64) bool {
+		set, err := Surrogates(x, SurrogateOptions{Method: IAAFT, Count: 19, Seed: seed, Threads: 2})
+		if err != nil {
+			t.Fatal(err)
+		}
+		d, err := PredictionError(x[:set.Length], po)
+		if err != nil {
+			t.Fatal(err)
+		}
+		s := make([]float64, 19)
+		for i, sg := range set.Surrogates {
+			if s[i], err = PredictionError(sg.Values, po); err != nil {
+				t.Fatal(err)
+			}
+		}
+		return Rank("npe", d, s, Smaller).Rejects(0.05, 0)
+	}
+	count := 0
+	for r := range 20 {
+		if rejects(ar1(1024, 0.9, uint64(100+r)), uint64(r)) {
+			count++
+		}
+	}
+	if count >= 5 {
+		t.Errorf("AR(1): %d of 20 rejections at 5 %%", count)
+	}
+	if !rejects(simulate(t, "henon", "x", nil, 1024, 0, 1), 1) {
+		t.Error("Hénon data not rejected")
+	}
+	t.Logf("AR(1) rejections: %d of 20", count)
+}
