@@ -144,7 +144,10 @@ func ChooseDimension(x []float64, opt DimOptions) (*DimChoice, error) {
 		total += n - m*lag
 	}
 	done := 0
-	zeroPairs := 0
+	// Repeated values make exact-duplicate neighbours in low dimensions (quantised data do
+	// that in dimension 1 as a matter of course); they are worth a caution only where they
+	// persist, in dimension 2 and above.
+	zeroPairs, zeroDim := 0, 0
 	for m := 1; m <= c.MaxDim; m++ {
 		cnt := n - m*lag
 		// The vectors of x[:n−lag] in dimension m are exactly the N − m·τ vectors that have
@@ -161,14 +164,16 @@ func ChooseDimension(x []float64, opt DimOptions) (*DimChoice, error) {
 		idx, dist := ix.AllKNN(1, c.Theiler, 0, 0, opt.Threads, prog)
 		done += cnt
 		p, e, es, zeros := scoreNeighbors(x, lag, m, idx, dist, ra, c.RTol, c.ATol, opt.Norm)
-		zeroPairs = max(zeroPairs, zeros)
+		if m >= 2 && zeros > zeroPairs {
+			zeroPairs, zeroDim = zeros, m
+		}
 		p.Dim = m
 		c.FNN = append(c.FNN, p)
 		c.E = append(c.E, e)
 		c.EStar = append(c.EStar, es)
 	}
 	if zeroPairs > 0 {
-		c.Cautions = append(c.Cautions, fmt.Sprintf("up to %d points had a neighbour at distance 0 (repeated values) and were left out", zeroPairs))
+		c.Cautions = append(c.Cautions, fmt.Sprintf("in dimension %d, %d points had a neighbour at distance 0 (repeated stretches of the signal, or coarse quantisation) and were left out of the false-neighbour count", zeroDim, zeroPairs))
 	}
 	for d := 1; d < c.MaxDim; d++ {
 		cp := CaoPoint{Dim: d, E1: c.E[d] / c.E[d-1], E2: c.EStar[d] / c.EStar[d-1]}
