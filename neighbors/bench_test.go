@@ -17,8 +17,14 @@ import (
 // the measurements quoted in the issue. Sizes N = 10^6 run only when -bench names them
 // explicitly (e.g. -bench 'AllKNN/N=1000000'), because building their data takes a while.
 //
-//	go test ./neighbors -run '^$' -bench . -benchtime 3x
+//	go test ./neighbors -run '^$' -bench 'AllKNN|Build|Kyroy' -benchtime 3x   # N = 10^4, 10^5
+//	go test ./neighbors -run '^$' -bench 'Brute|Kyroy/N=10000/' -benchtime 1x  # reports "speedup"
+//	go test ./neighbors -run '^$' -bench 'PairCounts/N=(10000|100000)/' -benchtime 2x
+//	go test ./neighbors -run '^$' -bench 'AllKNNParallel/N=1000000|Build/N=1000000' -benchtime 2x
 //	go test ./neighbors -run '^$' -bench 'AllKNN/N=1000000' -benchtime 1x
+//
+// The Brute* and Kyroy/*/kyroy benchmarks report the metric "speedup": their time per op over
+// the time of our equivalent call (one thread) measured right after, in the same process.
 
 const benchLag, benchTheiler = 10, 50
 
