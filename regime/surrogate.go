@@ -295,9 +295,11 @@ type worker struct {
 	fft   *fourier.FFT
 	coef  []complex128
 	buf   []float64
-	rank  []rankPair
 	order []int32
 	prev  []int32
+	// radix-sort buffers
+	keys, keys2 []uint64
+	idx2        []int32
 }
 
 type rankPair struct {
@@ -311,7 +313,6 @@ func (g *generator) newWorker() *worker {
 		fft:   fourier.NewFFT(g.n),
 		coef:  make([]complex128, len(g.amp)),
 		buf:   make([]float64, g.n),
-		rank:  make([]rankPair, g.n),
 		order: make([]int32, g.n),
 		prev:  make([]int32, g.n),
 	}
@@ -399,14 +400,53 @@ func (w *worker) randomPhases(out []float64, amp []float64, coef []complex128, r
 }
 
 // ranksInto writes into order the index permutation that sorts y (order[r] = index of the
-// r-th smallest; ties by index).
+// r-th smallest; ties by index). It is a least-significant-digit radix sort (11-bit digits)
+// of the order-preserving integer images of the values, stable, so ties keep index order;
+// it allocates nothing after the worker's first call.
 func (w *worker) ranksInto(order []int32, y []float64) {
-	for i, v := range y {
-		w.rank[i] = rankPair{v, int32(i)}
+	n := len(y)
+	if len(w.keys) != n {
+		w.keys, w.keys2 = make([]uint64, n), make([]uint64, n)
+		w.idx2 = make([]int32, n)
 	}
-	sortPairs(w.rank)
-	for r, p := range w.rank {
-		order[r] = p.i
+	keys, idx := w.keys, order
+	for i, v := range y {
+		if v == 0 {
+			v = 0 // −0 and +0 compare equal
+		}
+		b := math.Float64bits(v)
+		if b>>63 == 1 {
+			b = ^b
+		} else {
+			b |= 1 << 63
+		}
+		keys[i], idx[i] = b, int32(i)
+	}
+	k2, i2 := w.keys2, w.idx2
+	var count [2048]int
+	for shift := uint(0); shift < 64; shift += 11 {
+		clear(count[:])
+		for _, k := range keys {
+			count[(k>>shift)&2047]++
+		}
+		if count[(keys[0]>>shift)&2047] == n {
+			continue // every key has this digit: the pass would not move anything
+		}
+		sum := 0
+		for d, c := range count {
+			count[d] = sum
+			sum += c
+		}
+		for j, k := range keys {
+			d := (k >> shift) & 2047
+			k2[count[d]], i2[count[d]] = k, idx[j]
+			count[d]++
+		}
+		keys, k2 = k2, keys
+		idx, i2 = i2, idx
+	}
+	if &idx[0] != &order[0] {
+		copy(order, idx)
 	}
 }
 

@@ -133,3 +133,32 @@ func TestFFTLength(t *testing.T) {
 		}
 	}
 }
+
+func TestRadixRanksMatchSort(t *testing.T) {
+	rng := rand.New(rand.NewPCG(4, 4))
+	y := make([]float64, 5000)
+	for i := range y {
+		switch i % 5 {
+		case 0:
+			y[i] = float64(rng.IntN(7) - 3) // ties, negatives and zeros
+		case 1:
+			y[i] = math.Copysign(0, -1)
+		default:
+			y[i] = rng.NormFloat64() * math.Pow(10, float64(rng.IntN(20)-10))
+		}
+	}
+	w := newGenerator(y).newWorker()
+	got := make([]int32, len(y))
+	w.ranksInto(got, y)
+	p := make([]rankPair, len(y))
+	for i, v := range y {
+		p[i] = rankPair{v, int32(i)}
+	}
+	sortPairs(p)
+	// The radix ranks equal a comparison sort by (value, index) (reference: slices.SortFunc).
+	for r := range p {
+		if got[r] != p[r].i {
+			t.Fatalf("rank %d: radix %d, sort %d", r, got[r], p[r].i)
+		}
+	}
+}
