@@ -174,7 +174,7 @@ if [ -n "${UNFOLD_SLURM_UP_ONLY:-}" ]; then
   wait "${pids[0]}"; exit 0
 fi
 tstart=$(date +%s.%N)
-UNFOLD_SLURM_TEST=1 UNFOLD_SLURM_WORK="$work/jobs" go test -count=1 -v -run 'Slurm' ./deploy/slurm/ 2>&1
+UNFOLD_SLURM_TEST=1 UNFOLD_SLURM_WORK="$work/jobs" go test -count=1 -timeout 5m -v -run 'Slurm' ./deploy/slurm/ 2>&1
 rc=$?
 echo "Slurm integration test: go test exit $rc, $(awk -v a="$tstart" -v b="$(date +%s.%N)" 'BEGIN{printf "%.1f", b-a}') s (total with install and start $(elapsed) s)"
 [ $rc = 0 ] || { show_logs; }

@@ -1,0 +1,329 @@
+package slurm
+
+import (
+	"encoding/csv"
+	"fmt"
+	"io/fs"
+	"os"
+	"os/exec"
+	"path/filepath"
+	"regexp"
+	"sort"
+	"strings"
+	"testing"
+	"time"
+)
+
+// The scheduler test runs only where deploy/slurm/test.sh has brought up a single-node Slurm
+// and set UNFOLD_SLURM_TEST=1 (and SLURM_CONF); elsewhere it skips and says so.
+
+// slurmEnv skips the test unless a Slurm set up for it is up.
+func slurmEnv(t *testing.T) string {
+	t.Helper()
+	if os.Getenv("UNFOLD_SLURM_TEST") == "" {
+		t.Skip("Slurm integration test skipped: run bash deploy/slurm/test.sh (it installs and starts a single-node Slurm and sets UNFOLD_SLURM_TEST=1)")
+	}
+	for _, tool := range []string{"sbatch", "scontrol", "scancel", "bash", "go"} {
+		if _, err := exec.LookPath(tool); err != nil {
+			t.Fatalf("UNFOLD_SLURM_TEST is set but %s is not on PATH", tool)
+		}
+	}
+	work := os.Getenv("UNFOLD_SLURM_WORK")
+	if work == "" {
+		return t.TempDir()
+	}
+	d, err := os.MkdirTemp(work, "t")
+	if err != nil {
+		t.Fatal(err)
+	}
+	return d
+}
+
+// mustRun runs a command and fails the test with its output if it fails.
+func mustRun(t *testing.T, dir, name string, args ...string) string {
+	t.Helper()
+	cmd := exec.Command(name, args...)
+	cmd.Dir = dir
+	out, err := cmd.CombinedOutput()
+	if err != nil {
+		t.Fatalf("%s %s: %v\n%s", name, strings.Join(args, " "), err, out)
+	}
+	return string(out)
+}
+
+// readSummary reads DIR/summary.csv into rows keyed by the file column; every file must
+// appear exactly once.
+func readSummary(t *testing.T, dir string) (header []string, rows map[string][]string) {
+	t.Helper()
+	f, err := os.Open(filepath.Join(dir, "summary.csv"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer f.Close()
+	recs, err := csv.NewReader(f).ReadAll()
+	if err != nil {
+		t.Fatalf("%s/summary.csv: %v", dir, err)
+	}
+	if len(recs) == 0 {
+		t.Fatalf("%s/summary.csv is empty", dir)
+	}
+	header = recs[0]
+	want := []string{"file", "samples", "dt", "lag", "dimension", "lambda_max", "d2", "regime", "confidence", "status", "error"}
+	if strings.Join(header, ",") != strings.Join(want, ",") {
+		t.Fatalf("%s/summary.csv header %v, want %v", dir, header, want)
+	}
+	rows = map[string][]string{}
+	for i, r := range recs[1:] {
+		if _, dup := rows[r[0]]; dup {
+			t.Errorf("%s/summary.csv line %d: %s appears twice", dir, i+2, r[0])
+		}
+		rows[r[0]] = r
+	}
+	return header, rows
+}
+
+// checkSummary asserts that the summary has one row per input, the corrupt one with status
+// error, and every row equal to the plain (unsharded, unscheduled) run's.
+func checkSummary(t *testing.T, dir string, inputs []string, corrupt string, plain map[string][]string) {
+	t.Helper()
+	header, rows := readSummary(t, dir)
+	if len(rows) != len(inputs) {
+		t.Errorf("%s/summary.csv has %d rows, want %d (one per input)", dir, len(rows), len(inputs))
+	}
+	status := indexOf(header, "status")
+	for _, in := range inputs {
+		r, ok := rows[in]
+		if !ok {
+			t.Errorf("%s/summary.csv: no row for %s", dir, in)
+			continue
+		}
+		if in == corrupt {
+			if r[status] != "error" {
+				t.Errorf("corrupt input %s: status %q, want error", in, r[status])
+			}
+		} else if r[status] == "error" {
+			t.Errorf("input %s: status error: %v", in, r)
+		}
+		if p := plain[in]; strings.Join(p, "\x00") != strings.Join(r, "\x00") {
+			t.Errorf("input %s: row under Slurm\n  %v\nplain unfold batch\n  %v", in, r, p)
+		}
+	}
+}
+
+func indexOf(xs []string, x string) int {
+	for i, v := range xs {
+		if v == x {
+			return i
+		}
+	}
+	return -1
+}
+
+// jobStates returns the state of every job (array tasks one by one) of the given job id.
+func jobStates(t *testing.T, id string) map[string]string {
+	t.Helper()
+	out, err := exec.Command("scontrol", "show", "job", "-o", id).CombinedOutput()
+	if err != nil {
+		t.Fatalf("scontrol show job %s: %v\n%s", id, err, out)
+	}
+	st := map[string]string{}
+	reTask := regexp.MustCompile(`ArrayTaskId=(\S+)`)
+	reState := regexp.MustCompile(`JobState=(\S+)`)
+	reID := regexp.MustCompile(`^JobId=(\S+)`)
+	for _, line := range strings.Split(strings.TrimSpace(string(out)), "\n") {
+		s := reState.FindStringSubmatch(line)
+		if s == nil {
+			continue
+		}
+		key := ""
+		if m := reTask.FindStringSubmatch(line); m != nil {
+			key = m[1]
+		} else if m := reID.FindStringSubmatch(line); m != nil {
+			key = m[1]
+		}
+		st[key] = s[1]
+	}
+	return st
+}
+
+func active(state string) bool {
+	switch state {
+	case "PENDING", "RUNNING", "COMPLETING", "CONFIGURING", "SUSPENDED", "REQUEUED", "RESIZING":
+		return true
+	}
+	return false
+}
+
+// waitJob polls until no task of job id is pending or running and returns the final states.
+func waitJob(t *testing.T, id string, limit time.Duration) map[string]string {
+	t.Helper()
+	deadline := time.Now().Add(limit)
+	for {
+		st := jobStates(t, id)
+		busy := false
+		for _, s := range st {
+			busy = busy || active(s)
+		}
+		if !busy && len(st) > 0 {
+			return st
+		}
+		if time.Now().After(deadline) {
+			t.Fatalf("job %s still active after %v: %v", id, limit, st)
+		}
+		time.Sleep(100 * time.Millisecond)
+	}
+}
+
+// snapshot lists every file under dir (outside dir/slurm and summary.csv) with its size and
+// modification time, to tell results that were kept from results that were written again.
+func snapshot(t *testing.T, dir string) map[string]string {
+	t.Helper()
+	snap := map[string]string{}
+	err := filepath.WalkDir(dir, func(p string, d fs.DirEntry, err error) error {
+		if err != nil {
+			return err
+		}
+		rel, _ := filepath.Rel(dir, p)
+		if d.IsDir() {
+			if rel == "slurm" {
+				return filepath.SkipDir
+			}
+			return nil
+		}
+		if rel == "summary.csv" {
+			return nil
+		}
+		info, err := d.Info()
+		if err != nil {
+			return err
+		}
+		snap[rel] = fmt.Sprintf("%d %d", info.Size(), info.ModTime().UnixNano())
+		return nil
+	})
+	if err != nil {
+		t.Fatal(err)
+	}
+	return snap
+}
+
+// TestSlurmArray runs the generated array on a real Slurm: a full run compared with a plain
+// `unfold batch`, then a run with one array task cancelled mid-run and its resubmission.
+func TestSlurmArray(t *testing.T) {
+	dir := slurmEnv(t)
+	bin := filepath.Join(dir, "unfold")
+	t0 := time.Now()
+	mustRun(t, "../..", "go", "build", "-o", bin, "./cmd/unfold")
+	help, err := exec.Command(bin, "batch", "--help").CombinedOutput()
+	if err != nil || !strings.Contains(string(help), "--shard") || !strings.Contains(string(help), "--merge") {
+		t.Skipf("Slurm integration test skipped: this unfold has no batch command with --shard and --merge yet (%v)", err)
+	}
+	t.Logf("built unfold in %v", time.Since(t0).Round(time.Millisecond))
+	gen, err := filepath.Abs("unfold-array.sh")
+	if err != nil {
+		t.Fatal(err)
+	}
+
+	// Small signals of our own model systems, and one corrupt file.
+	data := filepath.Join(dir, "data")
+	if err := os.Mkdir(data, 0o755); err != nil {
+		t.Fatal(err)
+	}
+	var inputs []string
+	for i, model := range []string{"lorenz", "rossler", "henon", "logistic", "sines", "ar"} {
+		p := filepath.Join(data, fmt.Sprintf("s%d-%s.csv", i, model))
+		mustRun(t, dir, bin, "simulate", model, "--n", "3000", "--quiet", "-o", p)
+		inputs = append(inputs, p)
+	}
+	corrupt := filepath.Join(data, "s3b-corrupt.csv")
+	if err := os.WriteFile(corrupt, []byte("t,x\n0,0.5\n1,0.25\n2,not-a-number\n3,0.75\n"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	inputs = append(inputs, corrupt)
+	sort.Strings(inputs)
+	list := filepath.Join(dir, "inputs.txt")
+	if err := os.WriteFile(list, []byte(strings.Join(inputs, "\n")+"\n"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+
+	// The reference: one plain run of the same inputs, no shards, no scheduler.
+	t1 := time.Now()
+	plainDir := filepath.Join(dir, "plain")
+	cmd := exec.Command(bin, "batch", "--list", list, "-o", plainDir, "--threads", "1", "--quiet")
+	if out, err := cmd.CombinedOutput(); err != nil {
+		// A bad input is reported in its row; the exit status may say so.
+		if _, statErr := os.Stat(filepath.Join(plainDir, "summary.csv")); statErr != nil {
+			t.Fatalf("plain unfold batch: %v\n%s", err, out)
+		}
+	}
+	_, plain := readSummary(t, plainDir)
+	t.Logf("plain unfold batch over %d inputs: %v", len(inputs), time.Since(t1).Round(time.Millisecond))
+
+	// 1. The whole array and the merge job, waited for with sbatch --wait.
+	t2 := time.Now()
+	out1 := filepath.Join(dir, "run1")
+	so := mustRun(t, dir, "bash", gen, "-o", out1, "--shards", "3", "--threads", "1", "--unfold", bin, "--wait", "--list", list)
+	t.Logf("array of 3 shards + merge under Slurm: %v\n%s", time.Since(t2).Round(time.Millisecond), so)
+	checkSummary(t, out1, inputs, corrupt, plain)
+	for k := 0; k < 3; k++ {
+		logs, _ := filepath.Glob(filepath.Join(out1, "slurm/logs", fmt.Sprintf("shard-*_%d.err", k)))
+		if len(logs) != 1 {
+			t.Errorf("task %d: %d error files in %s/slurm/logs, want 1", k, len(logs), out1)
+		}
+	}
+
+	// 2. Cancel one array task while it runs, then submit again: the resumed run computes the
+	// missing inputs only.
+	t3 := time.Now()
+	out2 := filepath.Join(dir, "run2")
+	so = mustRun(t, dir, "bash", gen, "-o", out2, "--shards", "3", "--threads", "1", "--unfold", bin, "--list", list)
+	ids := map[string]string{}
+	for _, line := range strings.Split(strings.TrimSpace(so), "\n") {
+		if f := strings.Fields(line); len(f) == 2 {
+			ids[f[0]] = f[1]
+		}
+	}
+	arrayID, mergeID := ids["array"], ids["merge"]
+	if arrayID == "" || mergeID == "" {
+		t.Fatalf("unfold-array.sh printed no job ids: %q", so)
+	}
+	victim := arrayID + "_1"
+	deadline := time.Now().Add(30 * time.Second)
+	for {
+		st := jobStates(t, victim)["1"]
+		if st == "RUNNING" {
+			break
+		}
+		if !active(st) {
+			t.Fatalf("task %s ended (%s) before it could be cancelled", victim, st)
+		}
+		if time.Now().After(deadline) {
+			t.Fatalf("task %s did not start within 30 s", victim)
+		}
+		time.Sleep(50 * time.Millisecond)
+	}
+	mustRun(t, dir, "scancel", victim)
+	st := waitJob(t, arrayID, 60*time.Second)
+	if st["1"] != "CANCELLED" {
+		t.Fatalf("task 1 state %s after scancel, want CANCELLED (states %v)", st["1"], st)
+	}
+	if ms := waitJob(t, mergeID, 30*time.Second)[mergeID]; ms == "COMPLETED" {
+		t.Errorf("merge job %s ran although task 1 was cancelled (afterok)", mergeID)
+	}
+	before := snapshot(t, out2)
+	t.Logf("array with task 1 cancelled: %v; %d result files kept", time.Since(t3).Round(time.Millisecond), len(before))
+
+	t4 := time.Now()
+	so = mustRun(t, dir, "bash", gen, "-o", out2, "--shards", "3", "--threads", "1", "--unfold", bin, "--wait", "--list", list)
+	t.Logf("resubmitted array + merge: %v\n%s", time.Since(t4).Round(time.Millisecond), so)
+	checkSummary(t, out2, inputs, corrupt, plain)
+	after := snapshot(t, out2)
+	for f, v := range before {
+		if w, ok := after[f]; ok && w != v {
+			t.Errorf("resumed run wrote %s again (size and time %s, then %s): only missing inputs may be computed", f, v, w)
+		}
+	}
+	if len(after) <= len(before) {
+		t.Errorf("resumed run wrote no new result (%d files before, %d after)", len(before), len(after))
+	}
+	t.Logf("Slurm test total %v", time.Since(t0).Round(time.Millisecond))
+}
