@@ -329,6 +329,11 @@ func newWorker(ix *neighbors.Index, m int, endWeight float64) *worker {
 // coordinate multiplied by weight[a] when weight is not nil. It returns the number of
 // neighbours (not counting i).
 func (wk *worker) neighbourhood(ix *neighbors.Index, i int, eps float64, theiler int, weight []float64) int {
+	return wk.neighbourhoodCov(ix, i, eps, theiler, weight, true)
+}
+
+// neighbourhoodCov is neighbourhood; with cov false only wk.mean is computed.
+func (wk *worker) neighbourhoodCov(ix *neighbors.Index, i int, eps float64, theiler int, weight []float64, cov bool) int {
 	v := ix.Coords(i)
 	wk.nb = wk.s.Radius(v, eps, neighbors.Query{Self: i, Theiler: theiler}, wk.nb)
 	m := len(v)
@@ -342,6 +347,9 @@ func (wk *worker) neighbourhood(ix *neighbors.Index, i int, eps float64, theiler
 	}
 	for a := range m {
 		wk.mean[a] /= k
+	}
+	if !cov {
+		return len(wk.nb)
 	}
 	clear(wk.cov)
 	add := func(u []float64) {
@@ -389,7 +397,7 @@ func (o Options) pass(ix *neighbors.Index, cur, theta []float64, okv []bool) int
 		return func(i int) {
 			th := theta[i*m : i*m+m]
 			if o.Method == Constant {
-				if wk.neighbourhood(ix, i, o.Eps, o.Theiler, nil) < o.MinNeighbors {
+				if wk.neighbourhoodCov(ix, i, o.Eps, o.Theiler, nil, false) < o.MinNeighbors {
 					okv[i] = false
 					bad.Add(1)
 					return
