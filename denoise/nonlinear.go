@@ -81,6 +81,10 @@ type Options struct {
 	// MinNeighbors is the smallest neighbourhood (not counting the point itself) for which a
 	// point is corrected (default 2·Dim for Projective, 2 for Constant); smaller ones are left.
 	MinNeighbors int
+	// MaxNeighbors, when > 0, caps the neighbourhood at the MaxNeighbors nearest ε-neighbours
+	// (found by a k-nearest-neighbour search), which bounds the work per point on long records;
+	// 0 (default) uses every ε-neighbour.
+	MaxNeighbors int
 	// Theiler excludes neighbours j with 0 < |i−j| <= Theiler (default 0: only the point itself
 	// is not its own neighbour; it is always counted as a member of its neighbourhood).
 	Theiler int
@@ -114,12 +118,13 @@ type Iteration struct {
 type Result struct {
 	// Values are the cleaned samples (same length as the input).
 	Values []float64
-	// Method, Dim, Lag, Q, Eps, MinNeighbors, Theiler, Norm and EndWeight are the parameters
+	// Method, Dim, Lag, Q, Eps, MinNeighbors, MaxNeighbors, Theiler, Norm and EndWeight are the parameters
 	// used (chosen or given). Norm is "max" or "euclidean".
 	Method       Method
 	Dim, Lag, Q  int
 	Eps          float64
 	MinNeighbors int
+	MaxNeighbors int
 	Theiler      int
 	Norm         string
 	EndWeight    float64
@@ -179,6 +184,8 @@ func (o Options) resolve(n int) (Options, error) {
 		return o, fmt.Errorf("%w: iterations %d, want >= 1", ErrInput, o.Iterations)
 	case o.MinNeighbors < 1:
 		return o, fmt.Errorf("%w: minimum neighbours %d, want >= 1", ErrInput, o.MinNeighbors)
+	case o.MaxNeighbors < 0 || (o.MaxNeighbors > 0 && o.MaxNeighbors < o.MinNeighbors):
+		return o, fmt.Errorf("%w: maximum neighbours %d, want 0 (no cap) or >= the minimum %d", ErrInput, o.MaxNeighbors, o.MinNeighbors)
 	case o.Theiler < 0:
 		return o, fmt.Errorf("%w: Theiler window %d, want >= 0", ErrInput, o.Theiler)
 	case !(o.EndWeight > 0) || math.IsInf(o.EndWeight, 0):
@@ -230,7 +237,7 @@ func Reduce(x []float64, opt Options) (*Result, error) {
 			return nil, fmt.Errorf("%w: sample %d is %v", ErrInput, i, v)
 		}
 	}
-	res := &Result{Method: o.Method, Dim: o.Dim, Lag: o.Lag, Q: o.Q, MinNeighbors: o.MinNeighbors,
+	res := &Result{Method: o.Method, Dim: o.Dim, Lag: o.Lag, Q: o.Q, MinNeighbors: o.MinNeighbors, MaxNeighbors: o.MaxNeighbors,
 		Theiler: o.Theiler, Norm: o.normName(), EndWeight: o.EndWeight}
 	cur := append([]float64(nil), x...)
 	ix, err := neighbors.FromEmbedding(cur, o.Lag, o.Dim, o.norm())
@@ -309,6 +316,7 @@ type worker struct {
 	work  []float64 // LAPACK workspace
 	delta []float64
 	r     []float64 // coordinate weights
+	cap   int       // MaxNeighbors (0: no cap)
 }
 
 func newWorker(ix *neighbors.Index, m int, endWeight float64) *worker {
@@ -335,7 +343,16 @@ func (wk *worker) neighbourhood(ix *neighbors.Index, i int, eps float64, theiler
 // neighbourhoodCov is neighbourhood; with cov false only wk.mean is computed.
 func (wk *worker) neighbourhoodCov(ix *neighbors.Index, i int, eps float64, theiler int, weight []float64, cov bool) int {
 	v := ix.Coords(i)
-	wk.nb = wk.s.Radius(v, eps, neighbors.Query{Self: i, Theiler: theiler}, wk.nb)
+	if wk.cap > 0 {
+		wk.nb = wk.s.KNN(v, wk.cap, neighbors.Query{Self: i, Theiler: theiler}, wk.nb)
+		k := len(wk.nb)
+		for k > 0 && wk.nb[k-1].Dist > eps {
+			k--
+		}
+		wk.nb = wk.nb[:k]
+	} else {
+		wk.nb = wk.s.Radius(v, eps, neighbors.Query{Self: i, Theiler: theiler}, wk.nb)
+	}
 	m := len(v)
 	k := float64(len(wk.nb) + 1)
 	copy(wk.mean, v)
@@ -394,6 +411,7 @@ func (o Options) pass(ix *neighbors.Index, cur, theta []float64, okv []bool) int
 	var bad atomic.Int64
 	forChunks(nv, o.Threads, o.Progress, func() func(i int) {
 		wk := newWorker(ix, m, o.EndWeight)
+		wk.cap = o.MaxNeighbors
 		return func(i int) {
 			th := theta[i*m : i*m+m]
 			if o.Method == Constant {

@@ -238,6 +238,45 @@ func BenchmarkProjective(b *testing.B) {
 	}
 }
 
+// BenchmarkProjectiveCapped is BenchmarkProjective with the neighbourhood capped at the 64
+// nearest ε-neighbours.
+func BenchmarkProjectiveCapped(b *testing.B) {
+	x, _ := addNoise(henonX(100000), 0.05, 5)
+	b.ReportAllocs()
+	for b.Loop() {
+		if _, err := Reduce(x, Options{Dim: 7, Iterations: 2, Eps: 0.12, MaxNeighbors: 64}); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+// TestMaxNeighbors: a cap at least as large as every neighbourhood changes nothing (the k
+// nearest within ε are then exactly the ε-neighbours), and a small cap still reduces noise.
+func TestMaxNeighbors(t *testing.T) {
+	clean := henonX(3000)
+	noisy, _ := addNoise(clean, 0.05, 6)
+	a, err := Reduce(noisy, Options{Eps: 0.1, Iterations: 2})
+	if err != nil {
+		t.Fatal(err)
+	}
+	b, err := Reduce(noisy, Options{Eps: 0.1, Iterations: 2, MaxNeighbors: 3000})
+	if err != nil {
+		t.Fatal(err)
+	}
+	for i := range a.Values {
+		if math.Abs(a.Values[i]-b.Values[i]) > 1e-12 {
+			t.Fatalf("sample %d: %.15g with no cap, %.15g with a cap of 3000", i, a.Values[i], b.Values[i])
+		}
+	}
+	c, err := Reduce(noisy, Options{Eps: 0.1, Iterations: 2, MaxNeighbors: 40})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if rmsDiff(c.Values, clean) >= rmsDiff(noisy, clean) {
+		t.Errorf("cap 40: error %.4f, noisy %.4f", rmsDiff(c.Values, clean), rmsDiff(noisy, clean))
+	}
+}
+
 // BenchmarkConstant is the same with the locally constant method.
 func BenchmarkConstant(b *testing.B) {
 	x, _ := addNoise(henonX(100000), 0.05, 5)

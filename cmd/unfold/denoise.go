@@ -26,6 +26,7 @@ type denoiseOptions struct {
 	epsFactor   float64
 	iterations  int
 	minNb       int
+	maxNb       int
 	theiler     int
 	euclidean   bool
 	endWeight   float64
@@ -103,6 +104,7 @@ each).`,
 	f.Float64Var(&o.epsFactor, "eps-factor", denoise.DefaultEpsFactor, "default radius in units of the estimated noise level")
 	f.IntVar(&o.iterations, "iterations", denoise.DefaultIterations, "largest number of iterations (stops earlier when the rms correction stops shrinking)")
 	f.IntVar(&o.minNb, "min-neighbors", 0, "smallest neighbourhood for which a point is corrected (default: 2·m projective, 2 constant)")
+	f.IntVar(&o.maxNb, "max-neighbors", 0, "use at most this many nearest ε-neighbours per point (0: all; bounds the time on long records)")
 	f.IntVar(&o.theiler, "theiler", 0, "exclude neighbours closer in time than this many samples (0: only the point itself)")
 	f.BoolVar(&o.euclidean, "euclidean", false, "use the Euclidean norm instead of the maximum norm")
 	f.Float64Var(&o.endWeight, "end-weight", denoise.DefaultEndWeight, "weight of the first and last delay coordinates (projective)")
@@ -129,6 +131,7 @@ type denoiseParams struct {
 	EpsFactor    float64   `json:"eps_factor,omitempty"`
 	Iterations   int       `json:"iterations,omitempty"`
 	MinNeighbors int       `json:"min_neighbors,omitempty"`
+	MaxNeighbors int       `json:"max_neighbors"`
 	Theiler      int       `json:"theiler"`
 	Norm         string    `json:"norm,omitempty"`
 	EndWeight    float64   `json:"end_weight,omitempty"`
@@ -281,13 +284,14 @@ func (a *app) runDenoise(path string, o *denoiseOptions) error {
 		}
 		m, _ := denoise.ParseMethod(method)
 		res, err := denoise.Reduce(x, denoise.Options{Method: m, Dim: o.dim, Lag: lag, Q: o.q, Eps: o.eps,
-			EpsFactor: o.epsFactor, Iterations: o.iterations, MinNeighbors: o.minNb, Theiler: o.theiler,
+			EpsFactor: o.epsFactor, Iterations: o.iterations, MinNeighbors: o.minNb, MaxNeighbors: o.maxNb, Theiler: o.theiler,
 			Euclidean: o.euclidean, EndWeight: o.endWeight, Threads: a.threads(), Progress: a.progress("denoise")})
 		if err != nil {
 			return noAnswer(fmt.Errorf("denoise: %s: %w", path, err))
 		}
 		x = res.Values
 		p.Dim, p.Lag, p.Q, p.Eps, p.EpsRule = res.Dim, res.Lag, res.Q, res.Eps, res.EpsRule
+		p.MaxNeighbors = res.MaxNeighbors
 		p.Iterations, p.MinNeighbors, p.Norm, p.EndWeight = o.iterations, res.MinNeighbors, res.Norm, res.EndWeight
 		if o.eps == 0 {
 			p.EpsFactor = o.epsFactor
