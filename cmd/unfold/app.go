@@ -185,6 +185,17 @@ type inputInfo struct {
 // not nil) and "parameters", followed by the fields of body (a struct or map that marshals to a
 // JSON object), in that order.
 func (a *app) emitJSON(command string, in *inputInfo, params any, body any) error {
+	b, err := buildJSON(command, in, params, body)
+	if err != nil {
+		return err
+	}
+	_, err = a.stdout.Write(b)
+	return err
+}
+
+// buildJSON returns the indented JSON object that emitJSON prints (with its final newline),
+// for callers that keep it instead of printing it (the report).
+func buildJSON(command string, in *inputInfo, params any, body any) ([]byte, error) {
 	var buf bytes.Buffer
 	buf.WriteString(`{"command":`)
 	head := []any{command, versionString()}
@@ -197,7 +208,7 @@ func (a *app) emitJSON(command string, in *inputInfo, params any, body any) erro
 		buf.WriteString(`,"input":`)
 		b, err := json.Marshal(in)
 		if err != nil {
-			return fmt.Errorf("%s: encoding JSON input: %w", command, err)
+			return nil, fmt.Errorf("%s: encoding JSON input: %w", command, err)
 		}
 		buf.Write(b)
 	}
@@ -206,18 +217,18 @@ func (a *app) emitJSON(command string, in *inputInfo, params any, body any) erro
 	}
 	b, err := json.Marshal(params)
 	if err != nil {
-		return fmt.Errorf("%s: encoding JSON parameters: %w", command, err)
+		return nil, fmt.Errorf("%s: encoding JSON parameters: %w", command, err)
 	}
 	buf.WriteString(`,"parameters":`)
 	buf.Write(b)
 	if body != nil {
 		b, err := json.Marshal(body)
 		if err != nil {
-			return fmt.Errorf("%s: encoding JSON result: %w", command, err)
+			return nil, fmt.Errorf("%s: encoding JSON result: %w", command, err)
 		}
 		b = bytes.TrimSpace(b)
 		if len(b) < 2 || b[0] != '{' {
-			return fmt.Errorf("%s: JSON result is not an object", command)
+			return nil, fmt.Errorf("%s: JSON result is not an object", command)
 		}
 		if inner := bytes.TrimSpace(b[1 : len(b)-1]); len(inner) > 0 {
 			buf.WriteByte(',')
@@ -227,10 +238,9 @@ func (a *app) emitJSON(command string, in *inputInfo, params any, body any) erro
 	buf.WriteString("}\n")
 	var out bytes.Buffer
 	if err := json.Indent(&out, buf.Bytes(), "", "  "); err != nil {
-		return fmt.Errorf("%s: JSON: %w", command, err)
+		return nil, fmt.Errorf("%s: JSON: %w", command, err)
 	}
-	_, err = a.stdout.Write(out.Bytes())
-	return err
+	return out.Bytes(), nil
 }
 
 // table writes rows as aligned columns on stdout (the human output of a command).

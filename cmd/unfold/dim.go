@@ -6,6 +6,7 @@ import (
 	"strconv"
 
 	"github.com/spf13/cobra"
+	"github.com/spf13/pflag"
 	"gonum.org/v1/plot/vg"
 
 	"unfold/embed"
@@ -59,7 +60,12 @@ dimension up to --max-dim qualifies.`,
 		},
 	}
 	addInputFlags(cmd, &o.in)
-	f := cmd.Flags()
+	addDimFlags(cmd.Flags(), o)
+	return cmd
+}
+
+// addDimFlags binds the flags of `dim` (besides the input flags) to o, with their defaults.
+func addDimFlags(f *pflag.FlagSet, o *dimOptions) {
 	f.IntVar(&o.lag, "lag", 0, "delay in samples (default: chosen from the mutual information, as 'unfold lag')")
 	f.IntVar(&o.maxDim, "max-dim", 10, "largest dimension scanned")
 	f.IntVar(&o.theiler, "theiler", -1, "Theiler window in samples: neighbours closer in time are excluded (default: 1/e decay time of the autocorrelation; 0 excludes only the point itself)")
@@ -69,7 +75,6 @@ dimension up to --max-dim qualifies.`,
 	f.StringVar(&o.norm, "norm", "euclidean", "distance: euclidean or max")
 	f.StringVar(&o.csvPath, "csv", "", "write the curves to this CSV file (dimension, fnn_fraction, criterion1, criterion2, e1, e2)")
 	f.StringVar(&o.plot, "plot", "", "draw the curves with the chosen dimension marked (.png or .svg)")
-	return cmd
 }
 
 type dimParams struct {
@@ -151,33 +156,42 @@ func (a *app) embeddingDefaults(x []float64, lag, theiler int) (int, string, int
 	return lag, lagMethod, theiler, from, cautions, nil
 }
 
-func (a *app) runDim(path string, o *dimOptions) error {
-	if err := checkFigurePath(o.plot); err != nil {
-		return err
-	}
+// checkDimOptions validates the flags of `dim`.
+func checkDimOptions(o *dimOptions) (neighbors.Norm, error) {
 	norm, err := parseNorm(o.norm)
 	if err != nil {
-		return err
+		return 0, err
 	}
 	if o.maxDim < 1 || o.lag < 0 || !(o.rtol > 0) || !(o.atol > 0) || !(o.threshold > 0 && o.threshold < 1) {
-		return usagef("dim: want --max-dim ≥ 1, --lag ≥ 0, --rtol > 0, --atol > 0, 0 < --fnn-threshold < 1")
+		return 0, usagef("dim: want --max-dim ≥ 1, --lag ≥ 0, --rtol > 0, --atol > 0, 0 < --fnn-threshold < 1")
 	}
-	s, in, err := a.loadInput(path, &o.in)
+	return norm, nil
+}
+
+// dimCompute chooses the dimension of s and returns the choice with the JSON parameters and
+// body of `dim`; the command and the report both use it. lagMethod names the rule that chose
+// o.lag when a caller chose it already (the report's lag stage); "" means o.lag was given (or
+// is 0, to be chosen here).
+func (a *app) dimCompute(path string, s *series.Series, o *dimOptions, lagMethod string) (*embed.DimChoice, dimParams, dimResult, error) {
+	norm, err := checkDimOptions(o)
 	if err != nil {
-		return err
+		return nil, dimParams{}, dimResult{}, err
 	}
 	if err := series.CheckVariable(s.Values); err != nil {
-		return err
+		return nil, dimParams{}, dimResult{}, err
 	}
-	lag, lagMethod, theiler, theilerFrom, cautions, err := a.embeddingDefaults(s.Values, o.lag, o.theiler)
+	lag, method, theiler, theilerFrom, cautions, err := a.embeddingDefaults(s.Values, o.lag, o.theiler)
 	if err != nil {
-		return noAnswer(fmt.Errorf("dim: %s: %w", path, err))
+		return nil, dimParams{}, dimResult{}, noAnswer(fmt.Errorf("dim: %s: %w", path, err))
+	}
+	if lagMethod == "" {
+		lagMethod = method
 	}
 	c, err := embed.ChooseDimension(s.Values, embed.DimOptions{Lag: lag, MaxDim: o.maxDim, Theiler: theiler,
 		RTol: o.rtol, ATol: o.atol, Threshold: o.threshold, Norm: norm, Threads: a.threads(),
 		Progress: a.progress("false neighbours")})
 	if err != nil {
-		return noAnswer(fmt.Errorf("dim: %s: %w", path, err))
+		return nil, dimParams{}, dimResult{}, noAnswer(fmt.Errorf("dim: %s: %w", path, err))
 	}
 	res := dimResult{Dimension: c.Dimension, Lag: lag, LagTime: float64(lag) * s.Dt, Theiler: theiler,
 		Method: c.Method, Reason: c.Reason, FNNDimension: c.FNNDim, CaoDimension: c.CaoDim, NoiseLike: c.NoiseLike,
@@ -192,6 +206,29 @@ func (a *app) runDim(path string, o *dimOptions) error {
 	for _, p := range c.Cao {
 		res.Cao = append(res.Cao, caoJSON{p.Dim, p.E1, p.E2})
 	}
+	p := dimParams{prepParams: newPrepParams(s, &o.in), Lag: lag, LagMethod: lagMethod, MaxDim: c.MaxDim,
+		Theiler: theiler, TheilerFrom: theilerFrom, RTol: c.RTol, ATol: c.ATol, FNNThreshold: c.Threshold,
+		Norm: norm.String(), Threads: a.threads()}
+	return c, p, res, nil
+}
+
+func (a *app) runDim(path string, o *dimOptions) error {
+	if err := checkFigurePath(o.plot); err != nil {
+		return err
+	}
+	norm, err := checkDimOptions(o)
+	if err != nil {
+		return err
+	}
+	s, in, err := a.loadInput(path, &o.in)
+	if err != nil {
+		return err
+	}
+	c, p, res, err := a.dimCompute(path, s, o, "")
+	if err != nil {
+		return err
+	}
+	lag, lagMethod, theiler, theilerFrom := p.Lag, p.LagMethod, p.Theiler, p.TheilerFrom
 	if o.csvPath != "" {
 		n := len(c.FNN)
 		cols := make([][]float64, 6)
@@ -223,9 +260,6 @@ func (a *app) runDim(path string, o *dimOptions) error {
 		noDim = noAnswer(errors.New("dim: " + path + ": " + c.Reason + "; give --dim to embed anyway, or scan further with --max-dim"))
 	}
 	if a.global.JSON {
-		p := dimParams{prepParams: newPrepParams(s, &o.in), Lag: lag, LagMethod: lagMethod, MaxDim: c.MaxDim,
-			Theiler: theiler, TheilerFrom: theilerFrom, RTol: c.RTol, ATol: c.ATol, FNNThreshold: c.Threshold,
-			Norm: norm.String(), Threads: a.threads()}
 		if err := a.emitJSON("dim", in, p, res); err != nil {
 			return err
 		}

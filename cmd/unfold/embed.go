@@ -9,6 +9,7 @@ import (
 
 	"codeberg.org/sbinet/npyio"
 	"github.com/spf13/cobra"
+	"github.com/spf13/pflag"
 	"gonum.org/v1/gonum/mat"
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/vg"
@@ -59,7 +60,12 @@ temporal correlation dominates until the curves stop rising.`,
 		},
 	}
 	addInputFlags(cmd, &o.in)
-	f := cmd.Flags()
+	addEmbedFlags(cmd.Flags(), o)
+	return cmd
+}
+
+// addEmbedFlags binds the flags of `embed` (besides the input flags) to o, with their defaults.
+func addEmbedFlags(f *pflag.FlagSet, o *embedOptions) {
 	f.StringVarP(&o.output, "output", "o", "", "write the vectors to this file (.csv or .npy)")
 	f.IntVar(&o.lag, "lag", 0, "delay in samples (default: chosen as 'unfold lag')")
 	f.IntVar(&o.dim, "dim", 0, "embedding dimension (default: chosen as 'unfold dim')")
@@ -71,7 +77,6 @@ temporal correlation dominates until the curves stop rising.`,
 	f.Float64Var(&o.azimuth, "azimuth", -45, "rotation of the 3-D view about the x(t+2τ) axis, degrees")
 	f.Float64Var(&o.elevation, "elevation", 30, "elevation of the 3-D view above the x(t)–x(t+τ) plane, degrees")
 	f.IntVar(&o.densityAbove, "density-above", 20000, "draw a density image instead of points above this many vectors")
-	return cmd
 }
 
 type embedParams struct {
@@ -108,6 +113,56 @@ type stpBody struct {
 	Curve     []stpJSON `json:"curve"`
 }
 
+// embedCompute builds the delay vectors of s (choosing what o does not give) and returns them
+// with the Theiler window and the JSON parameters and body of `embed`; the command and the
+// report both use it. lagMethod and dimMethod name the rules that chose o.lag and o.dim when
+// a caller chose them already (the report's earlier stages); "" means given or chosen here.
+func (a *app) embedCompute(path string, s *series.Series, o *embedOptions, lagMethod, dimMethod string) (embed.Embedding, int, embedParams, embedResult, error) {
+	fail := func(err error) (embed.Embedding, int, embedParams, embedResult, error) {
+		return embed.Embedding{}, 0, embedParams{}, embedResult{}, err
+	}
+	if err := series.CheckVariable(s.Values); err != nil {
+		return fail(err)
+	}
+	x := s.Values
+	lag, method, theiler, _, cautions, err := a.embeddingDefaults(x, o.lag, o.theiler)
+	if err != nil {
+		return fail(noAnswer(fmt.Errorf("embed: %s: %w", path, err)))
+	}
+	if lagMethod == "" {
+		lagMethod = method
+	}
+	dim := o.dim
+	if dimMethod == "" {
+		dimMethod = "given"
+	}
+	if dim == 0 {
+		c, err := embed.ChooseDimension(x, embed.DimOptions{Lag: lag, MaxDim: o.maxDim, Theiler: theiler,
+			Threads: a.threads(), Progress: a.progress("false neighbours")})
+		if err != nil {
+			return fail(noAnswer(fmt.Errorf("embed: %s: %w", path, err)))
+		}
+		if c.Dimension == 0 {
+			return fail(noAnswer(fmt.Errorf("embed: %s: %s; give --dim", path, c.Reason)))
+		}
+		dim, dimMethod = c.Dimension, c.Method
+		cautions = append(cautions, c.Cautions...)
+		a.notef("dimension %d chosen (%s): %s", dim, c.Method, c.Reason)
+	}
+	e, err := embed.New(x, lag, dim)
+	if err != nil {
+		return fail(noAnswer(fmt.Errorf("embed: %s: %w", path, err)))
+	}
+	res := embedResult{Lag: lag, LagTime: float64(lag) * s.Dt, Dimension: dim, Vectors: e.Len(),
+		Output: o.output, Plot: o.plot, STP: o.stp, Cautions: cautions}
+	if res.Cautions == nil {
+		res.Cautions = []string{}
+	}
+	p := embedParams{prepParams: newPrepParams(s, &o.in), Lag: lag, LagMethod: lagMethod, Dim: dim, DimMethod: dimMethod,
+		Theiler: theiler, Azimuth: o.azimuth, Elevation: o.elevation, Threads: a.threads()}
+	return e, theiler, p, res, nil
+}
+
 func (a *app) runEmbed(path string, o *embedOptions) error {
 	if o.output == "" && o.plot == "" && o.stp == "" {
 		return usagef("embed: nothing to do: give -o FILE (.csv or .npy), --plot FILE or --stp FILE")
@@ -129,38 +184,13 @@ func (a *app) runEmbed(path string, o *embedOptions) error {
 	if err != nil {
 		return err
 	}
-	if err := series.CheckVariable(s.Values); err != nil {
+	e, theiler, p, res, err := a.embedCompute(path, s, o, "", "")
+	if err != nil {
 		return err
 	}
 	x := s.Values
-	lag, lagMethod, theiler, _, cautions, err := a.embeddingDefaults(x, o.lag, o.theiler)
-	if err != nil {
-		return noAnswer(fmt.Errorf("embed: %s: %w", path, err))
-	}
-	dim, dimMethod := o.dim, "given"
-	if dim == 0 {
-		c, err := embed.ChooseDimension(x, embed.DimOptions{Lag: lag, MaxDim: o.maxDim, Theiler: theiler,
-			Threads: a.threads(), Progress: a.progress("false neighbours")})
-		if err != nil {
-			return noAnswer(fmt.Errorf("embed: %s: %w", path, err))
-		}
-		if c.Dimension == 0 {
-			return noAnswer(fmt.Errorf("embed: %s: %s; give --dim", path, c.Reason))
-		}
-		dim, dimMethod = c.Dimension, c.Method
-		cautions = append(cautions, c.Cautions...)
-		a.notef("dimension %d chosen (%s): %s", dim, c.Method, c.Reason)
-	}
-	e, err := embed.New(x, lag, dim)
-	if err != nil {
-		return noAnswer(fmt.Errorf("embed: %s: %w", path, err))
-	}
+	lag, dim, lagMethod, dimMethod := p.Lag, p.Dim, p.LagMethod, p.DimMethod
 	fig := figureOf(path, s)
-	res := embedResult{Lag: lag, LagTime: float64(lag) * s.Dt, Dimension: dim, Vectors: e.Len(),
-		Output: o.output, Plot: o.plot, STP: o.stp, Cautions: cautions}
-	if res.Cautions == nil {
-		res.Cautions = []string{}
-	}
 	if o.output != "" {
 		if err := writeVectors(o.output, path, ext, e, s.Name); err != nil {
 			return err
@@ -206,8 +236,6 @@ func (a *app) runEmbed(path string, o *embedOptions) error {
 		res.STPCurve = body
 	}
 	if a.global.JSON {
-		p := embedParams{prepParams: newPrepParams(s, &o.in), Lag: lag, LagMethod: lagMethod, Dim: dim, DimMethod: dimMethod,
-			Theiler: theiler, Azimuth: o.azimuth, Elevation: o.elevation, Threads: a.threads()}
 		return a.emitJSON("embed", in, p, res)
 	}
 	rows := [][]string{

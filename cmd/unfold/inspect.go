@@ -64,27 +64,38 @@ type inspectParams struct {
 	Gaps        string `json:"gaps"`
 }
 
+// inspectCompute describes s and returns the JSON parameters and body of `inspect` with the
+// summary they came from; the command and the report both use it.
+func inspectCompute(path string, s *series.Series, o *inspectOptions) (inspectParams, inspectResult, *series.Summary, error) {
+	sm, err := series.Describe(s)
+	if err != nil {
+		return inspectParams{}, inspectResult{}, nil, noAnswer(fmt.Errorf("inspect: %s: %w", path, err))
+	}
+	if sm.Cautions == nil {
+		sm.Cautions = []string{}
+	}
+	p := inspectParams{Column: s.Name, TimeColumn: s.TimeName, Detrend: o.in.prep.Detrend,
+		Standardize: o.in.prep.Standardize, Decimate: max(o.in.prep.Decimate, 1),
+		From: o.in.prep.From, To: o.in.prep.To, Gaps: o.in.read.Gaps}
+	res := inspectResult{
+		Duration: sm.Duration, Mean: sm.Mean, Std: sm.Std, Min: sm.Min, Max: sm.Max,
+		Quantization: sm.Quantization, DominantPeriod: sm.DominantPeriod,
+		GapsFilled: sm.GapsFilled, Stationarity: sm.Stationarity, Cautions: sm.Cautions,
+	}
+	return p, res, sm, nil
+}
+
 func (a *app) runInspect(path string, o *inspectOptions) error {
 	s, in, err := a.loadInput(path, &o.in)
 	if err != nil {
 		return err
 	}
-	sm, err := series.Describe(s)
+	p, res, sm, err := inspectCompute(path, s, o)
 	if err != nil {
-		return noAnswer(fmt.Errorf("inspect: %s: %w", path, err))
-	}
-	if sm.Cautions == nil {
-		sm.Cautions = []string{}
+		return err
 	}
 	if a.global.JSON {
-		p := inspectParams{Column: s.Name, TimeColumn: s.TimeName, Detrend: o.in.prep.Detrend,
-			Standardize: o.in.prep.Standardize, Decimate: max(o.in.prep.Decimate, 1),
-			From: o.in.prep.From, To: o.in.prep.To, Gaps: o.in.read.Gaps}
-		return a.emitJSON("inspect", in, p, inspectResult{
-			Duration: sm.Duration, Mean: sm.Mean, Std: sm.Std, Min: sm.Min, Max: sm.Max,
-			Quantization: sm.Quantization, DominantPeriod: sm.DominantPeriod,
-			GapsFilled: sm.GapsFilled, Stationarity: sm.Stationarity, Cautions: sm.Cautions,
-		})
+		return a.emitJSON("inspect", in, p, res)
 	}
 	g := func(v float64) string { return strconv.FormatFloat(v, 'g', 6, 64) }
 	unit := ""

@@ -8,6 +8,7 @@ import (
 	"strings"
 
 	"github.com/spf13/cobra"
+	"github.com/spf13/pflag"
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/vg"
 
@@ -61,7 +62,12 @@ The suggested Theiler window (the 1/e decay time of the autocorrelation) is prin
 		},
 	}
 	addInputFlags(cmd, &o.in)
-	f := cmd.Flags()
+	addLagFlags(cmd.Flags(), o)
+	return cmd
+}
+
+// addLagFlags binds the flags of `lag` (besides the input flags) to o, with their defaults.
+func addLagFlags(f *pflag.FlagSet, o *lagOptions) {
 	f.IntVar(&o.maxLag, "max-lag", 0, "largest lag scanned, in samples (default: max(20, 2×first zero, 4×1/e decay of the autocorrelation), at most 500 and N/4)")
 	f.StringVar(&o.mi, "mi", embed.Histogram, "mutual-information estimator: hist (equiprobable bins) or ksg (k nearest neighbours)")
 	f.IntVar(&o.bins, "bins", 0, "bins per axis for --mi hist (default: round(N^(1/3)) in [4, 128])")
@@ -70,7 +76,6 @@ The suggested Theiler window (the 1/e decay time of the autocorrelation) is prin
 	f.Float64Var(&o.z, "z", 3, "significance of a minimum, in standard errors")
 	f.StringVar(&o.csvPath, "csv", "", "write the curves to this CSV file (lag, lag_time, mi_bits, mi_error_bits, autocorrelation)")
 	f.StringVar(&o.plot, "plot", "", "draw the curves with the chosen lag marked (.png or .svg)")
-	return cmd
 }
 
 // prepParams are the reading and preprocessing parameters recorded in every JSON output of the
@@ -138,24 +143,19 @@ func (a *app) lagOptionsFrom(o *lagOptions) (embed.LagOptions, error) {
 		K: o.k, MaxPoints: o.points, Threads: a.threads()}}, nil
 }
 
-func (a *app) runLag(path string, o *lagOptions) error {
-	if err := checkFigurePath(o.plot); err != nil {
-		return err
-	}
+// lagCompute chooses the lag of s and returns the choice with the JSON parameters and body of
+// `lag`; the command and the report both use it.
+func (a *app) lagCompute(path string, s *series.Series, o *lagOptions) (*embed.LagChoice, lagParams, lagResult, error) {
 	lo, err := a.lagOptionsFrom(o)
 	if err != nil {
-		return err
-	}
-	s, in, err := a.loadInput(path, &o.in)
-	if err != nil {
-		return err
+		return nil, lagParams{}, lagResult{}, err
 	}
 	if err := series.CheckVariable(s.Values); err != nil {
-		return err
+		return nil, lagParams{}, lagResult{}, err
 	}
 	c, err := embed.ChooseLag(s.Values, lo)
 	if err != nil {
-		return noAnswer(fmt.Errorf("lag: %s: %w", path, err))
+		return nil, lagParams{}, lagResult{}, noAnswer(fmt.Errorf("lag: %s: %w", path, err))
 	}
 	res := lagResult{Lag: c.Lag, LagTime: float64(c.Lag) * s.Dt, Method: c.Method, Reason: c.Reason,
 		BiasBits: c.MI.Bias / ln2, AutocorrelationZero: c.ACF.FirstZero, AutocorrelationDecay: c.ACF.DecayTime,
@@ -166,6 +166,31 @@ func (a *app) runLag(path string, o *lagOptions) error {
 	for k := range c.MI.Nats {
 		res.MutualInformation = append(res.MutualInformation, miPoint{Lag: k, Bits: c.MI.Bits(k), ErrorBits: c.MI.Err[k] / ln2})
 		res.Autocorrelation = append(res.Autocorrelation, acfPoint{Lag: k, R: c.ACF.R[k]})
+	}
+	p := lagParams{prepParams: newPrepParams(s, &o.in), Estimator: c.MI.Estimator, MaxLag: c.MaxLag,
+		Points: c.MI.Points, Z: c.Z, Threads: a.threads()}
+	if c.MI.Estimator == embed.KSG {
+		p.K, p.Theiler = c.MI.K, c.MI.Theiler
+	} else {
+		p.Bins = c.MI.Bins
+	}
+	return c, p, res, nil
+}
+
+func (a *app) runLag(path string, o *lagOptions) error {
+	if err := checkFigurePath(o.plot); err != nil {
+		return err
+	}
+	if _, err := a.lagOptionsFrom(o); err != nil {
+		return err
+	}
+	s, in, err := a.loadInput(path, &o.in)
+	if err != nil {
+		return err
+	}
+	c, p, res, err := a.lagCompute(path, s, o)
+	if err != nil {
+		return err
 	}
 	if o.csvPath != "" {
 		n := len(c.MI.Nats)
@@ -190,13 +215,6 @@ func (a *app) runLag(path string, o *lagOptions) error {
 		}
 	}
 	if a.global.JSON {
-		p := lagParams{prepParams: newPrepParams(s, &o.in), Estimator: c.MI.Estimator, MaxLag: c.MaxLag,
-			Points: c.MI.Points, Z: c.Z, Threads: a.threads()}
-		if c.MI.Estimator == embed.KSG {
-			p.K, p.Theiler = c.MI.K, c.MI.Theiler
-		} else {
-			p.Bins = c.MI.Bins
-		}
 		return a.emitJSON("lag", in, p, res)
 	}
 	est := fmt.Sprintf("equiprobable bins (B = %d, independence bias %.4f bits)", c.MI.Bins, res.BiasBits)

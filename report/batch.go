@@ -1,0 +1,498 @@
+package report
+
+import (
+	"bufio"
+	"bytes"
+	"crypto/sha256"
+	"encoding/csv"
+	"encoding/hex"
+	"encoding/json"
+	"errors"
+	"fmt"
+	"io"
+	"io/fs"
+	"os"
+	"path/filepath"
+	"sort"
+	"strconv"
+	"strings"
+	"sync"
+	"time"
+
+	"unfold/series"
+)
+
+// ListInputs returns the inputs named by args and by the lines of list (nil for none): each
+// argument is a file, a directory (walked recursively for regular files whose names do not
+// start with a dot) or a glob pattern (filepath.Match syntax). In list, blank lines and lines
+// starting with # are ignored. The paths are cleaned, deduplicated and sorted, which is the
+// order --shard slices. A path that does not exist or a pattern that matches nothing is an
+// error that names it.
+func ListInputs(args []string, list io.Reader, listName string) ([]string, error) {
+	var names []string
+	if list != nil {
+		sc := bufio.NewScanner(list)
+		sc.Buffer(make([]byte, 64*1024), 1<<20)
+		line := 0
+		for sc.Scan() {
+			line++
+			s := strings.TrimSpace(sc.Text())
+			if s == "" || strings.HasPrefix(s, "#") {
+				continue
+			}
+			names = append(names, s)
+		}
+		if err := sc.Err(); err != nil {
+			return nil, fmt.Errorf("batch: reading %s after line %d: %w", listName, line, err)
+		}
+	}
+	names = append(names, args...)
+	seen := map[string]bool{}
+	var out []string
+	add := func(p string) {
+		p = filepath.Clean(p)
+		if !seen[p] {
+			seen[p] = true
+			out = append(out, p)
+		}
+	}
+	for _, n := range names {
+		fi, err := os.Stat(n)
+		switch {
+		case err == nil && fi.IsDir():
+			err := filepath.WalkDir(n, func(p string, d fs.DirEntry, err error) error {
+				if err != nil {
+					return err
+				}
+				if p != n && strings.HasPrefix(d.Name(), ".") {
+					if d.IsDir() {
+						return filepath.SkipDir
+					}
+					return nil
+				}
+				if d.Type().IsRegular() {
+					add(p)
+				}
+				return nil
+			})
+			if err != nil {
+				return nil, fmt.Errorf("batch: listing %s: %w", n, err)
+			}
+		case err == nil:
+			add(n)
+		case strings.ContainsAny(n, "*?["):
+			m, gerr := filepath.Glob(n)
+			if gerr != nil {
+				return nil, fmt.Errorf("batch: pattern %q: %w", n, gerr)
+			}
+			if len(m) == 0 {
+				return nil, fmt.Errorf("batch: pattern %q matches no file", n)
+			}
+			for _, p := range m {
+				if fi, err := os.Stat(p); err == nil && fi.Mode().IsRegular() {
+					add(p)
+				}
+			}
+		default:
+			return nil, fmt.Errorf("batch: %w", err)
+		}
+	}
+	sort.Strings(out)
+	return out, nil
+}
+
+// ParseShard reads "K/N" (1 ≤ K ≤ N; K is 1-based).
+func ParseShard(s string) (k, n int, err error) {
+	a, b, ok := strings.Cut(s, "/")
+	k, err1 := strconv.Atoi(strings.TrimSpace(a))
+	n, err2 := strconv.Atoi(strings.TrimSpace(b))
+	if !ok || err1 != nil || err2 != nil || n < 1 || k < 1 || k > n {
+		return 0, 0, fmt.Errorf("--shard %q: want K/N with 1 ≤ K ≤ N (K is 1-based)", s)
+	}
+	return k, n, nil
+}
+
+// Shard returns the k-th (1-based) of n contiguous, disjoint slices of paths: items
+// ⌊(k−1)·len/n⌋ … ⌊k·len/n⌋−1. Over k = 1…n the slices cover every path exactly once; with
+// sorted paths the split depends only on the set of inputs.
+func Shard(paths []string, k, n int) []string {
+	if n <= 1 {
+		return paths
+	}
+	lo, hi := (k-1)*len(paths)/n, k*len(paths)/n
+	return paths[lo:hi]
+}
+
+// FolderName is the name of an input's result folder inside the batch directory: the file
+// name without extensions, reduced to letters, digits, '.', '-' and '_', and the first 8 hex
+// digits of the SHA-256 of the cleaned path as given (so equal file names in different
+// directories do not collide).
+func FolderName(path string) string {
+	base := filepath.Base(path)
+	for _, ext := range []string{".gz"} {
+		base = strings.TrimSuffix(base, ext)
+	}
+	base = strings.TrimSuffix(base, filepath.Ext(base))
+	var b strings.Builder
+	for _, r := range base {
+		switch {
+		case r >= 'a' && r <= 'z', r >= 'A' && r <= 'Z', r >= '0' && r <= '9', r == '-', r == '_', r == '.':
+			b.WriteRune(r)
+		default:
+			b.WriteByte('_')
+		}
+	}
+	name := strings.TrimLeft(b.String(), ".")
+	if len(name) > 60 {
+		name = name[:60]
+	}
+	if name == "" {
+		name = "input"
+	}
+	h := sha256.Sum256([]byte(filepath.Clean(path)))
+	return name + "-" + hex.EncodeToString(h[:4])
+}
+
+// FileSHA256 is the hex SHA-256 of a file's bytes as stored (as series.ReadFile records it).
+func FileSHA256(path string) (string, error) {
+	f, err := os.Open(path)
+	if err != nil {
+		return "", err
+	}
+	defer f.Close()
+	h := sha256.New()
+	if _, err := io.Copy(h, f); err != nil {
+		return "", fmt.Errorf("reading %s: %w", path, err)
+	}
+	return hex.EncodeToString(h.Sum(nil)), nil
+}
+
+// BatchOptions configure RunBatch.
+type BatchOptions struct {
+	Dir         string // the batch directory: one folder per input and summary.csv
+	Jobs        int    // inputs analysed at the same time (at least 1)
+	RetryErrors bool   // analyse again inputs whose last result was an error
+	PNG         bool   // also write PNG figures
+	Version     string // written into error results
+	// Analyze runs the chain on one input. An error means the input could not be analysed at
+	// all (its row gets status "error"); stages without an answer are inside the Result.
+	Analyze func(path string) (*Result, error)
+	// Log receives one line per input (it is called from one goroutine at a time); may be nil.
+	Log func(line string)
+}
+
+// BatchStats counts what RunBatch did.
+type BatchStats struct {
+	Inputs, Skipped, OK, Partial, Errors int
+}
+
+// RunBatch analyses every path with opt.Jobs workers, writes each result into its folder
+// (built in a temporary folder and renamed into place, so a kill leaves no half-written
+// result), skips inputs whose folder holds a complete result with the same input SHA-256, and
+// finally rebuilds DIR/summary.csv from every result folder present (as Merge does).
+func RunBatch(paths []string, opt BatchOptions) (BatchStats, error) {
+	st := BatchStats{Inputs: len(paths)}
+	if err := os.MkdirAll(opt.Dir, 0o755); err != nil {
+		return st, fmt.Errorf("batch: %w", err)
+	}
+	jobs := max(opt.Jobs, 1)
+	var mu sync.Mutex
+	logf := func(format string, args ...any) {
+		if opt.Log != nil {
+			opt.Log(fmt.Sprintf(format, args...))
+		}
+	}
+	work := make(chan int)
+	var wg sync.WaitGroup
+	var firstErr error
+	done := 0
+	for w := 0; w < jobs; w++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for i := range work {
+				p := paths[i]
+				t0 := time.Now()
+				status, msg, err := runOne(p, opt)
+				mu.Lock()
+				done++
+				switch {
+				case err != nil:
+					if firstErr == nil {
+						firstErr = err
+					}
+					logf("[%d/%d] %s: could not write the result: %v", done, len(paths), p, err)
+				case status == "skipped":
+					st.Skipped++
+					logf("[%d/%d] %s: skipped (result complete, input unchanged)", done, len(paths), p)
+				default:
+					switch status {
+					case StatusOK:
+						st.OK++
+					case StatusPartial:
+						st.Partial++
+					default:
+						st.Errors++
+					}
+					line := fmt.Sprintf("[%d/%d] %s: %s (%.1f s)", done, len(paths), p, status, time.Since(t0).Seconds())
+					if msg != "" {
+						line += ": " + msg
+					}
+					logf("%s", line)
+				}
+				mu.Unlock()
+			}
+		}()
+	}
+	for i := range paths {
+		work <- i
+	}
+	close(work)
+	wg.Wait()
+	rows, err := Merge(opt.Dir)
+	if err != nil {
+		return st, err
+	}
+	if err := WriteSummary(opt.Dir, rows); err != nil {
+		return st, err
+	}
+	return st, firstErr
+}
+
+// runOne analyses one input unless its result is complete; it returns the status written
+// ("skipped" when nothing was done) and a short message.
+func runOne(path string, opt BatchOptions) (string, string, error) {
+	folder := filepath.Join(opt.Dir, FolderName(path))
+	sum, herr := FileSHA256(path)
+	if herr == nil {
+		if prev, err := readResultHead(filepath.Join(folder, "result.json")); err == nil &&
+			prev.Input.SHA256 == sum && (prev.Status != StatusError || !opt.RetryErrors) {
+			return "skipped", "", nil
+		}
+	}
+	tmp, err := os.MkdirTemp(opt.Dir, ".tmp-"+FolderName(path)+"-")
+	if err != nil {
+		return "", "", fmt.Errorf("batch: %w", err)
+	}
+	defer os.RemoveAll(tmp)
+	var res *Result
+	aerr := herr
+	if aerr == nil {
+		res, aerr = analyze(opt.Analyze, path)
+	}
+	status, msg := StatusError, ""
+	if aerr != nil {
+		msg = aerr.Error()
+		b, err := errorResult(opt.Version, path, sum, msg)
+		if err != nil {
+			return "", "", err
+		}
+		if err := os.WriteFile(filepath.Join(tmp, "result.json"), b, 0o644); err != nil {
+			return "", "", fmt.Errorf("batch: %w", err)
+		}
+	} else {
+		status = res.Status()
+		if status == StatusPartial {
+			msg = "no answer from " + strings.Join(failedKeys(res), ", ")
+		}
+		if _, err := res.WriteDir(tmp, WriteOptions{PNG: opt.PNG, Protect: []string{path}}); err != nil {
+			return "", "", err
+		}
+	}
+	return status, msg, replaceDir(tmp, folder)
+}
+
+// analyze calls f and turns a panic inside one input's analysis into that input's error, so
+// that one bad input never stops the batch.
+func analyze(f func(string) (*Result, error), path string) (r *Result, err error) {
+	defer func() {
+		if p := recover(); p != nil {
+			r, err = nil, fmt.Errorf("internal error while analysing %s: %v", path, p)
+		}
+	}()
+	return f(path)
+}
+
+func failedKeys(r *Result) []string {
+	var ks []string
+	for _, k := range r.Keys {
+		if _, ok := r.Errors[k]; ok {
+			ks = append(ks, k)
+		}
+	}
+	return ks
+}
+
+// replaceDir moves the finished folder tmp to dst, replacing an older result.
+func replaceDir(tmp, dst string) error {
+	if _, err := os.Stat(dst); err == nil {
+		old := filepath.Join(filepath.Dir(dst), ".old-"+filepath.Base(dst)+"-"+strconv.FormatInt(time.Now().UnixNano(), 36))
+		if err := os.Rename(dst, old); err != nil {
+			return fmt.Errorf("batch: %w", err)
+		}
+		defer os.RemoveAll(old)
+	}
+	if err := os.Rename(tmp, dst); err != nil {
+		return fmt.Errorf("batch: %w", err)
+	}
+	return nil
+}
+
+// errorResult is the result.json of an input that could not be analysed.
+func errorResult(version, path, sum, msg string) ([]byte, error) {
+	b, err := json.MarshalIndent(map[string]any{
+		"command": "report", "version": version,
+		"input":  map[string]any{"path": path, "sha256": sum},
+		"status": StatusError, "error": msg,
+	}, "", "  ")
+	if err != nil {
+		return nil, err
+	}
+	return append(b, '\n'), nil
+}
+
+type resultHead struct {
+	Input struct {
+		Path    string   `json:"path"`
+		SHA256  string   `json:"sha256"`
+		Samples *int     `json:"samples"`
+		Dt      *float64 `json:"dt"`
+	} `json:"input"`
+	Status     string      `json:"status"`
+	Error      string      `json:"error"`
+	Provenance *Provenance `json:"provenance"`
+	Lag        *struct {
+		Lag *int `json:"lag"`
+	} `json:"lag"`
+	Dim *struct {
+		Dimension *int `json:"dimension"`
+	} `json:"dim"`
+	Lyapunov *struct {
+		LambdaMax *float64 `json:"lambda_max"`
+	} `json:"lyapunov"`
+	Fractal *struct {
+		D2 *float64 `json:"d2"`
+	} `json:"fractal"`
+	Regime *struct {
+		Regime     *string  `json:"regime"`
+		Confidence *float64 `json:"confidence"`
+	} `json:"regime"`
+}
+
+func readResultHead(path string) (*resultHead, error) {
+	b, err := os.ReadFile(path)
+	if err != nil {
+		return nil, err
+	}
+	var h resultHead
+	if err := json.Unmarshal(b, &h); err != nil {
+		return nil, fmt.Errorf("%s: %w", path, err)
+	}
+	if h.Status == "" || h.Input.Path == "" {
+		return nil, fmt.Errorf("%s: not a complete result", path)
+	}
+	return &h, nil
+}
+
+// SummaryHeader returns the header of summary.csv.
+func SummaryHeader() []string {
+	return []string{"file", "samples", "dt", "lag", "dimension", "lambda_max", "d2", "regime", "confidence", "status", "error"}
+}
+
+// Row is one line of summary.csv: the fields of SummaryHeader as text (empty when the stage
+// did not run or gave no answer).
+type Row [11]string
+
+// Merge reads every result folder of dir (sub-directories holding result.json; names starting
+// with a dot are temporary and ignored) and returns the summary rows sorted by file.
+func Merge(dir string) ([]Row, error) {
+	ents, err := os.ReadDir(dir)
+	if err != nil {
+		return nil, fmt.Errorf("batch: %w", err)
+	}
+	var rows []Row
+	for _, e := range ents {
+		if !e.IsDir() || strings.HasPrefix(e.Name(), ".") {
+			continue
+		}
+		p := filepath.Join(dir, e.Name(), "result.json")
+		if _, err := os.Stat(p); errors.Is(err, fs.ErrNotExist) {
+			continue
+		}
+		h, err := readResultHead(p)
+		if err != nil {
+			rows = append(rows, Row{0: e.Name(), 9: StatusError, 10: err.Error()})
+			continue
+		}
+		rows = append(rows, h.row())
+	}
+	sort.Slice(rows, func(i, j int) bool { return rows[i][0] < rows[j][0] })
+	return rows, nil
+}
+
+func (h *resultHead) row() Row {
+	g := func(v *float64) string {
+		if v == nil {
+			return ""
+		}
+		return strconv.FormatFloat(*v, 'g', -1, 64)
+	}
+	n := func(v *int) string {
+		if v == nil {
+			return ""
+		}
+		return strconv.Itoa(*v)
+	}
+	r := Row{0: h.Input.Path, 1: n(h.Input.Samples), 2: g(h.Input.Dt), 9: h.Status, 10: h.Error}
+	if h.Lag != nil {
+		r[3] = n(h.Lag.Lag)
+	}
+	if h.Dim != nil {
+		r[4] = n(h.Dim.Dimension)
+	}
+	if h.Lyapunov != nil {
+		r[5] = g(h.Lyapunov.LambdaMax)
+	}
+	if h.Fractal != nil {
+		r[6] = g(h.Fractal.D2)
+	}
+	if h.Regime != nil {
+		if h.Regime.Regime != nil {
+			r[7] = *h.Regime.Regime
+		}
+		r[8] = g(h.Regime.Confidence)
+	}
+	if r[10] == "" && h.Provenance != nil {
+		var msgs []string
+		for _, s := range h.Provenance.Stages {
+			if s.Status != StatusOK {
+				msgs = append(msgs, s.Key+": "+s.Error)
+			}
+		}
+		r[10] = strings.Join(msgs, "; ")
+	}
+	return r
+}
+
+// WriteSummary writes dir/summary.csv (header SummaryHeader) through a temporary file.
+func WriteSummary(dir string, rows []Row) error {
+	var b bytes.Buffer
+	w := csv.NewWriter(&b)
+	_ = w.Write(SummaryHeader())
+	for _, r := range rows {
+		_ = w.Write(r[:])
+	}
+	w.Flush()
+	if err := w.Error(); err != nil {
+		return fmt.Errorf("batch: summary: %w", err)
+	}
+	f, err := series.CreateAtomic(filepath.Join(dir, "summary.csv"))
+	if err != nil {
+		return err
+	}
+	defer f.Abort()
+	if _, err := f.Write(b.Bytes()); err != nil {
+		return fmt.Errorf("batch: summary: %w", err)
+	}
+	return f.Commit()
+}

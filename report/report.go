@@ -1,0 +1,285 @@
+// Package report runs the whole analysis chain of one signal as an ordered list of stages and
+// writes what it found: result.json (every stage's JSON object under its key, with provenance),
+// a self-contained HTML page (inline SVG figures and CSS, no scripts, no fetched fonts, one
+// column that prints on A4) and the figures as files for reuse. It also runs the chain over
+// many inputs (batch): a worker pool, one result folder per input, resumable by the inputs'
+// SHA-256, shardable across a cluster's job array, and a summary.csv rebuilt from the
+// per-input results.
+//
+// The package knows nothing of the stages' methods: the command line builds the stage list
+// from the same functions its single commands use, so the report's "lag" object is exactly
+// what `unfold lag --json` prints.
+package report
+
+import (
+	"bytes"
+	"encoding/json"
+	"fmt"
+	"os"
+	"path/filepath"
+	"time"
+
+	"gonum.org/v1/plot"
+	"gonum.org/v1/plot/vg"
+
+	"unfold/embed"
+	"unfold/series"
+)
+
+// Figure is one figure of a stage: a grid of plots (rows of equal length) drawn on a canvas of
+// Width × Height, saved as figures/NAME.svg (and NAME.png on request) and inlined in the page.
+type Figure struct {
+	Name    string // file stem, e.g. "lag"; unique within a report
+	Caption string // one sentence shown under the figure
+	Width   vg.Length
+	Height  vg.Length
+	Rows    [][]*plot.Plot
+}
+
+// Section is what one stage returns.
+type Section struct {
+	// JSON is the stage's JSON object, exactly as the stage's single command prints it with
+	// --json (including its own "command", "input" and "parameters").
+	JSON json.RawMessage
+	// Summary holds the rows (label, value) of the table shown on the page.
+	Summary [][2]string
+	// Figures are drawn on the page in order.
+	Figures []Figure
+	// Cautions are shown under the table.
+	Cautions []string
+}
+
+// Stage is one step of the chain. Run may use the results of the stages before it (the
+// command line shares them through closures); an error ends only this stage: it is recorded
+// and the next stages still run.
+type Stage struct {
+	Key   string // the key in result.json (DESIGN.md §3), e.g. "lag"
+	Title string // the section heading on the page
+	Run   func() (*Section, error)
+}
+
+// Input is the "input" object of the JSON output (DESIGN.md §3).
+type Input struct {
+	Path    string  `json:"path"`
+	SHA256  string  `json:"sha256"`
+	Samples int     `json:"samples"`
+	Dt      float64 `json:"dt"`
+}
+
+// StageRecord is the provenance of one stage: its wall time and whether it gave an answer.
+type StageRecord struct {
+	Key     string  `json:"key"`
+	Seconds float64 `json:"seconds"`
+	Status  string  `json:"status"` // "ok" or "error"
+	Error   string  `json:"error,omitempty"`
+}
+
+// Provenance records how a result was made.
+type Provenance struct {
+	Version     string            `json:"version"`
+	Commit      string            `json:"commit"`
+	CommandLine []string          `json:"command_line"`
+	Seeds       map[string]uint64 `json:"seeds"`
+	InputSHA256 string            `json:"input_sha256"`
+	Started     string            `json:"started"` // RFC 3339, UTC
+	WallSeconds float64           `json:"wall_seconds"`
+	Stages      []StageRecord     `json:"stages"`
+}
+
+// Status values of a result (the "status" column of summary.csv).
+const (
+	StatusOK      = "ok"      // every stage gave an answer
+	StatusPartial = "partial" // the input was read but at least one stage gave no answer
+	StatusError   = "error"   // the input could not be analysed at all
+)
+
+// Header is what the caller states about the run: the envelope of result.json.
+type Header struct {
+	Version     string            // the toolkit's version string
+	Commit      string            // the source commit ("unknown" when not known)
+	CommandLine []string          // os.Args as run
+	Seeds       map[string]uint64 // every seed used, by name
+	Input       Input
+	Parameters  any    // the report's own parameters (overrides given), a JSON object
+	Title       string // shown as the page heading (the input's file name)
+}
+
+// Result is the outcome of Run: the stages' sections in order and the provenance.
+type Result struct {
+	Header     Header
+	Provenance Provenance
+	Keys       []string            // stage keys in the order they ran (including failed ones)
+	Titles     map[string]string   // stage key → heading
+	Sections   map[string]*Section // stage key → section (only for stages that gave an answer)
+	Errors     map[string]string   // stage key → why it gave no answer
+}
+
+// Status is StatusOK when every stage gave an answer, else StatusPartial.
+func (r *Result) Status() string {
+	if len(r.Errors) > 0 {
+		return StatusPartial
+	}
+	return StatusOK
+}
+
+// Run runs the stages in order. before is called with a stage's key before it runs and after
+// with its key, wall time and error (nil on success) once it has run; either may be nil.
+func Run(h Header, stages []Stage, before func(key string), after func(key string, took time.Duration, err error)) *Result {
+	start := time.Now()
+	r := &Result{Header: h, Titles: map[string]string{}, Sections: map[string]*Section{}, Errors: map[string]string{}}
+	r.Provenance = Provenance{Version: h.Version, Commit: h.Commit, CommandLine: h.CommandLine, Seeds: h.Seeds,
+		InputSHA256: h.Input.SHA256, Started: start.UTC().Format(time.RFC3339), Stages: []StageRecord{}}
+	if r.Provenance.Seeds == nil {
+		r.Provenance.Seeds = map[string]uint64{}
+	}
+	if r.Provenance.CommandLine == nil {
+		r.Provenance.CommandLine = []string{}
+	}
+	for _, st := range stages {
+		if before != nil {
+			before(st.Key)
+		}
+		t0 := time.Now()
+		sec, err := st.Run()
+		if err == nil && (sec == nil || !json.Valid(sec.JSON)) {
+			err = fmt.Errorf("%s: the stage returned no valid JSON object", st.Key)
+		}
+		took := time.Since(t0)
+		rec := StageRecord{Key: st.Key, Seconds: took.Seconds(), Status: StatusOK}
+		r.Keys = append(r.Keys, st.Key)
+		r.Titles[st.Key] = st.Title
+		if err != nil {
+			rec.Status, rec.Error = StatusError, err.Error()
+			r.Errors[st.Key] = err.Error()
+		}
+		if sec != nil && json.Valid(sec.JSON) {
+			r.Sections[st.Key] = sec // a stage without an answer may still show its curves
+		}
+		r.Provenance.Stages = append(r.Provenance.Stages, rec)
+		if after != nil {
+			after(st.Key, took, err)
+		}
+	}
+	r.Provenance.WallSeconds = time.Since(start).Seconds()
+	return r
+}
+
+// JSON returns result.json: "command" ("report"), "version", "input", "parameters",
+// "status", "provenance", then each stage's object under its key in the order the stages ran.
+func (r *Result) JSON() ([]byte, error) {
+	var buf bytes.Buffer
+	put := func(key string, v any) error {
+		b, err := json.Marshal(v)
+		if err != nil {
+			return fmt.Errorf("report: encoding %s: %w", key, err)
+		}
+		if buf.Len() > 1 {
+			buf.WriteByte(',')
+		}
+		k, _ := json.Marshal(key)
+		buf.Write(k)
+		buf.WriteByte(':')
+		buf.Write(b)
+		return nil
+	}
+	params := r.Header.Parameters
+	if params == nil {
+		params = struct{}{}
+	}
+	buf.WriteByte('{')
+	for _, kv := range []struct {
+		k string
+		v any
+	}{{"command", "report"}, {"version", r.Header.Version}, {"input", r.Header.Input}, {"parameters", params},
+		{"status", r.Status()}, {"provenance", r.Provenance}} {
+		if err := put(kv.k, kv.v); err != nil {
+			return nil, err
+		}
+	}
+	for _, k := range r.Keys {
+		if s, ok := r.Sections[k]; ok {
+			if err := put(k, s.JSON); err != nil {
+				return nil, err
+			}
+		}
+	}
+	buf.WriteByte('}')
+	var out bytes.Buffer
+	if err := json.Indent(&out, buf.Bytes(), "", "  "); err != nil {
+		return nil, fmt.Errorf("report: result.json: %w", err)
+	}
+	out.WriteByte('\n')
+	return out.Bytes(), nil
+}
+
+// WriteOptions say what WriteDir writes besides result.json and report.html.
+type WriteOptions struct {
+	PNG     bool     // also figures/NAME.png
+	Protect []string // paths never written over (the input)
+}
+
+// WriteDir writes DIR/result.json, DIR/report.html and DIR/figures/*.svg (and .png), each
+// through a temporary file renamed into place. It returns the paths written.
+func (r *Result) WriteDir(dir string, opt WriteOptions) ([]string, error) {
+	figDir := filepath.Join(dir, "figures")
+	if err := os.MkdirAll(figDir, 0o755); err != nil {
+		return nil, fmt.Errorf("report: %w", err)
+	}
+	var written []string
+	write := func(path string, b []byte) error {
+		f, err := series.CreateAtomic(path, opt.Protect...)
+		if err != nil {
+			return err
+		}
+		defer f.Abort()
+		if _, err := f.Write(b); err != nil {
+			return fmt.Errorf("report: writing %s: %w", path, err)
+		}
+		if err := f.Commit(); err != nil {
+			return err
+		}
+		written = append(written, path)
+		return nil
+	}
+	svgs := map[string][]byte{}
+	for _, k := range r.Keys {
+		s, ok := r.Sections[k]
+		if !ok {
+			continue
+		}
+		for _, fg := range s.Figures {
+			var b bytes.Buffer
+			if err := embed.WriteFigure(&b, "svg", fg.Width, fg.Height, fg.Rows); err != nil {
+				return written, fmt.Errorf("report: figure %s: %w", fg.Name, err)
+			}
+			svgs[fg.Name] = b.Bytes()
+			if err := write(filepath.Join(figDir, fg.Name+".svg"), b.Bytes()); err != nil {
+				return written, err
+			}
+			if opt.PNG {
+				var p bytes.Buffer
+				if err := embed.WriteFigure(&p, "png", fg.Width, fg.Height, fg.Rows); err != nil {
+					return written, fmt.Errorf("report: figure %s: %w", fg.Name, err)
+				}
+				if err := write(filepath.Join(figDir, fg.Name+".png"), p.Bytes()); err != nil {
+					return written, err
+				}
+			}
+		}
+	}
+	js, err := r.JSON()
+	if err != nil {
+		return written, err
+	}
+	if err := write(filepath.Join(dir, "result.json"), js); err != nil {
+		return written, err
+	}
+	var page bytes.Buffer
+	if err := r.writeHTML(&page, svgs); err != nil {
+		return written, err
+	}
+	if err := write(filepath.Join(dir, "report.html"), page.Bytes()); err != nil {
+		return written, err
+	}
+	return written, nil
+}
