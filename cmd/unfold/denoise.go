@@ -15,6 +15,7 @@ import (
 
 	"unfold/denoise"
 	"unfold/embed"
+	"unfold/series"
 )
 
 type denoiseOptions struct {
@@ -80,8 +81,8 @@ Steps, in this order, each only when asked for:
 --plot draws the delay picture x(t+lag) against x(t) before and after (at most 20000 points
 each).`,
 		Example: `  # a noisy Hénon record: projective noise reduction with the defaults
-  unfold simulate henon --n 10000 -o henon.csv
-  unfold denoise henon.csv -o henon_clean.csv --plot henon_clean.png
+  unfold simulate henon --n 10000 --noise 0.05 -o henon.csv
+  unfold denoise --column x henon.csv -o henon_clean.csv --plot henon_clean.png
   # the locally constant method with a given radius and embedding, JSON report
   unfold denoise --method constant --dim 5 --lag 1 --eps 0.08 --json -o clean.csv henon.csv
   # band-pass 0.5–20 Hz (time column in seconds) and a quadratic trend removed, no nonlinear step
@@ -201,6 +202,12 @@ func (a *app) runDenoise(path string, o *denoiseOptions) error {
 	}
 	if o.resample < 0 {
 		return usagef("denoise: --resample %g: want a positive sampling interval", o.resample)
+	}
+	// refuse to write over the input before any work (the write itself checks again)
+	if f, err := series.CreateAtomic(o.output, path); err != nil {
+		return err
+	} else {
+		_ = f.Abort()
 	}
 	s, in, err := a.loadInput(path, &o.in)
 	if err != nil {
