@@ -14,9 +14,10 @@
 //     (one-sided) and by time-reversal asymmetry (two-sided, at level max(α, 2/(K+1))) in rank
 //     tests. If neither rejects — rank p ≤ α = 0.05 and the data at least 3 surrogate standard
 //     deviations from the surrogate mean — the regime is stochastic, whatever λ1 says.
-//  3. Chaos. The null is rejected: chaotic if the 0-1 test gives K ≥ 0.5 and either λ1's
-//     interval lies above zero (and λ1 exceeds 1 % growth per delay time) or D2 saturates, and
-//     λ1 is not ≤ 0; otherwise undetermined.
+//  3. Chaos. The null is rejected: chaotic if at least two of the three chaos indicators
+//     agree — the 0-1 test gives K ≥ 0.5 (on every ⌈τ/2⌉-th sample of an oversampled record),
+//     λ1's interval lies above zero (and λ1 exceeds 1 % growth per delay time), D2 saturates —
+//     and λ1 is not ≤ 0; otherwise undetermined.
 //
 // Confidence is the weighted share of the evidence items (lines 3, prediction error 3, 0-1
 // test 2, λ1 2, D2 1.5, time reversal 1, Cao's E2 1) whose "points to" set contains the

@@ -213,9 +213,9 @@ func Decide(ev *Evidence) *Verdict {
 	case !nonlinear:
 		v.Regime = Stochastic
 		v.Rule = "2: the surrogate tests cannot tell the signal from a linear Gaussian process seen through a static monotone function"
-	case !math.IsNaN(k) && k >= 0.5 && (lyapPos || saturated) && !lyapNeg:
+	case chaosVotes(k, lyapPos, saturated) >= 2 && !lyapNeg:
 		v.Regime = Chaotic
-		v.Rule = "3: nonlinear determinism, the 0-1 test says chaos, and " + map[bool]string{true: "λ1 > 0 with its interval", false: "D2 saturates"}[lyapPos]
+		v.Rule = "3: nonlinear determinism, and at least two of the chaos indicators agree: " + chaosWhy(k, lyapPos, saturated)
 	default:
 		v.Regime = Undetermined
 		v.Rule = "3: the null is rejected, but the chaos indicators (0-1 test, λ1, D2 saturation) do not agree"
@@ -350,8 +350,9 @@ func Analyze(x []float64, dt float64, opt Options) (*Analysis, error) {
 		ev.Dim, an.DimMethod = 3, "default-3 (no rule applied)"
 	}
 	// Oversampled flows are subsampled for the 0-1 test (Gottwald & Melbourne 2009): every
-	// ⌈τ/4⌉-th sample, so consecutive samples differ while enough samples remain (judgement).
-	sub := max(1, (ev.Lag+3)/4)
+	// ⌈τ/2⌉-th sample, so consecutive samples are about half a delay time apart (judgement:
+	// phase-coherent flows such as Rössler's need steps of that order for K to approach 1).
+	sub := max(1, (ev.Lag+1)/2)
 	if ev.Lag >= 8 {
 		ev.Cautions = append(ev.Cautions, fmt.Sprintf("oversampled: the delay is %d samples; the 0-1 test used a subsampling step of %d samples as Gottwald & Melbourne (2009) advise", ev.Lag, sub))
 	}
@@ -418,4 +419,34 @@ func maxOf(v []float64) float64 {
 		m = math.Max(m, x)
 	}
 	return m
+}
+
+// chaosVotes counts the chaos indicators of step 3: the 0-1 test (K ≥ 0.5), λ1 clearly above
+// zero, and D2 saturating.
+func chaosVotes(k float64, lyapPos, saturated bool) int {
+	n := 0
+	if !math.IsNaN(k) && k >= 0.5 {
+		n++
+	}
+	if lyapPos {
+		n++
+	}
+	if saturated {
+		n++
+	}
+	return n
+}
+
+func chaosWhy(k float64, lyapPos, saturated bool) string {
+	var w []string
+	if !math.IsNaN(k) && k >= 0.5 {
+		w = append(w, fmt.Sprintf("0-1 test K = %.2f", k))
+	}
+	if lyapPos {
+		w = append(w, "λ1 > 0 with its interval")
+	}
+	if saturated {
+		w = append(w, "D2 saturates")
+	}
+	return strings.Join(w, ", ")
 }

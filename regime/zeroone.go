@@ -13,7 +13,7 @@ import (
 type ZeroOneOptions struct {
 	// Subsample keeps every Subsample-th sample before the test (0 or 1: none). Gottwald &
 	// Melbourne (2009) advise subsampling oversampled flows, whose consecutive samples are
-	// nearly equal, or the test reports K < 1 for chaotic flows; Analyze passes ⌈τ/4⌉ for
+	// nearly equal, or the test reports K < 1 for chaotic flows; Analyze passes ⌈τ/2⌉ for
 	// the embedding delay τ.
 	Subsample int
 	// MaxSamples caps the samples used after subsampling (0 means 20 000).

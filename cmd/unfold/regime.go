@@ -36,8 +36,9 @@ const regimeRule = `Decision rule, in order:
      and time-reversal asymmetry (two-sided) in rank tests. If neither rejects the null (rank
      p ≤ 0.05, and the data at least 3 surrogate standard deviations away), the regime is
      stochastic, whatever λ1 says.
-  3. Chaos. The null is rejected: chaotic if the 0-1 test gives K ≥ 0.5 and either λ1's
-     interval is above zero or D2 saturates (and λ1 is not ≤ 0); otherwise undetermined.
+  3. Chaos. The null is rejected: chaotic if at least two of the three chaos indicators
+     agree — the 0-1 test gives K ≥ 0.5, λ1's interval is above zero (and λ1 exceeds 1 %
+     growth per delay time), D2 saturates — and λ1 is not ≤ 0; otherwise undetermined.
 Confidence is the weighted share of the evidence (lines 3, prediction error 3, 0-1 test 2,
 λ1 2, D2 1.5, reversal 1, Cao E2 1) that points to the regime, times 0.8 for records under
 2000 samples and 0.9 for non-stationary ones; undetermined has confidence 0.`
@@ -48,7 +49,7 @@ func newRegimeCmd(a *app) *cobra.Command {
 		Use:   "regime FILE",
 		Short: "Verdict: periodic, quasiperiodic, chaotic, stochastic or undetermined, with evidence and cautions",
 		Long: `regime gathers the evidence — Welch spectrum and line analysis, the 0-1 test for chaos
-(Gottwald & Melbourne 2004, 2009; oversampled flows are first subsampled to every ⌈τ/4⌉-th
+(Gottwald & Melbourne 2004, 2009; oversampled flows are first subsampled to every ⌈τ/2⌉-th
 sample, τ the delay), IAAFT
 surrogate tests (Schreiber & Schmitz 1996) of a nonlinear prediction error (Farmer & Sidorowich
 1987) and time-reversal asymmetry, the largest Lyapunov exponent (Kantz 1994) with its interval,
