@@ -8,7 +8,9 @@
 //  1. Lines. If at least half the power lies within ±4 bins of significant spectral lines and
 //     the lines are the harmonics of one fundamental, the regime is periodic; if they are
 //     integer combinations of two or three incommensurate fundamentals, quasiperiodic —
-//     provided the 0-1 test does not say chaos (K < 0.5).
+//     provided fewer than two of the chaos indicators contradict: the 0-1 test (K ≥ 0.5), λ1
+//     clearly above zero, D2 saturating at a non-integer value (cycles and tori have integer
+//     dimension).
 //  2. Null. Otherwise IAAFT surrogates (null: a linear Gaussian process seen through a static
 //     monotone function) are compared with the data by a nonlinear prediction error
 //     (one-sided) and by time-reversal asymmetry (two-sided, at level max(α, 2/(K+1))) in rank

@@ -203,10 +203,13 @@ func Decide(ev *Evidence) *Verdict {
 
 	// The decision rule (package comment).
 	kRegular := math.IsNaN(k) || k < 0.5
+	// For step 1 a saturated D2 says chaos only at a non-integer value: cycles and tori have
+	// integer dimensions.
+	fractal := saturated && ev.Dimension != nil && math.Abs(ev.Dimension.D2-math.Round(ev.Dimension.D2)) >= 0.15
 	switch {
-	case (lineKind == LinesPeriodic || lineKind == LinesQuasiperiodic) && kRegular:
+	case (lineKind == LinesPeriodic || lineKind == LinesQuasiperiodic) && chaosVotes(k, lyapPos, fractal) < 2:
 		v.Regime = string(lineKind)
-		v.Rule = "1: the power is in lines explained by " + map[bool]string{true: "one fundamental", false: "incommensurate fundamentals"}[lineKind == LinesPeriodic] + ", and the 0-1 test does not contradict"
+		v.Rule = "1: the power is in lines explained by " + map[bool]string{true: "one fundamental", false: "incommensurate fundamentals"}[lineKind == LinesPeriodic] + ", and fewer than two chaos indicators contradict"
 	case !tested:
 		v.Regime = Undetermined
 		v.Rule = "2: no surrogate test was run, so noise cannot be excluded"

@@ -10,7 +10,7 @@ import (
 // TestVerdicts checks the verdict on our own test signals (not the demo data) for several
 // seeds; the expected regimes are the known dynamics of each model (CHECKS.md §1: logistic
 // r = 4 chaotic, r = 3.5 period 4; Lorenz chaotic; a sine periodic; two sines in the
-// golden-mean ratio quasiperiodic; AR(1) and its cube linear Gaussian through a static
+// golden-mean ratio quasiperiodic; Rössler chaotic; AR(1) and its cube linear Gaussian through a static
 // monotone function, hence stochastic).
 func TestVerdicts(t *testing.T) {
 	n := 3000
@@ -37,6 +37,11 @@ func TestVerdicts(t *testing.T) {
 		{"lorenz", func(s uint64) []float64 {
 			return simulate(t, "lorenz", "x", nil, 2*n, 0.05, s)
 		}, 0.05, Chaotic},
+		// Rössler (0.2, 0.2, 5.7) is chaotic (λ1 = 0.0714, CHECKS.md §2, V): phase-coherent,
+		// with strong spectral lines on a broadband floor.
+		{"rossler", func(s uint64) []float64 {
+			return simulate(t, "rossler", "x", nil, n, 0.2, s)
+		}, 0.2, Chaotic},
 	}
 	for _, c := range cases {
 		for _, seed := range seeds {

@@ -30,7 +30,8 @@ const regimeRule = `Decision rule, in order:
   1. Lines. If the spectrum is a line spectrum (at least half the power within ±4 bins of
      significant lines) whose lines are the harmonics of one fundamental, the regime is
      periodic; if they are integer combinations of two or three incommensurate fundamentals,
-     quasiperiodic — provided the 0-1 test does not say chaos (K < 0.5).
+     quasiperiodic — provided fewer than two chaos indicators contradict: the 0-1 test
+     (K ≥ 0.5), λ1 clearly above zero, D2 saturating at a non-integer value.
   2. Null. Otherwise 19 IAAFT surrogates (a linear Gaussian process seen through a static
      monotone function) are compared with the data by a nonlinear prediction error (one-sided)
      and time-reversal asymmetry (two-sided) in rank tests. If neither rejects the null (rank
