@@ -272,7 +272,7 @@ type Options struct {
 	Lyapunov   *Exponent
 	NoLyapunov bool
 	// MaxAnalysis caps the samples used by the embedding choices, D2 and the surrogate
-	// statistics (0 means 20 000); the spectrum uses the whole record.
+	// statistics, λ1 (0 means 20 000); the spectrum and the 0-1 test use the whole record.
 	MaxAnalysis int
 	// Threads is the number of goroutines (0 = 1). Results do not depend on it.
 	Threads int

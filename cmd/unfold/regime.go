@@ -32,9 +32,10 @@ const regimeRule = `Decision rule, in order:
      periodic; if they are integer combinations of two or three incommensurate fundamentals,
      quasiperiodic — provided fewer than two chaos indicators contradict: the 0-1 test
      (K ≥ 0.5), λ1 clearly above zero, D2 saturating at a non-integer value.
-  2. Null. Otherwise 19 IAAFT surrogates (a linear Gaussian process seen through a static
+  2. Null. Otherwise K IAAFT surrogates (--surrogates, 19 by default) (a linear Gaussian process seen through a static
      monotone function) are compared with the data by a nonlinear prediction error (one-sided)
-     and time-reversal asymmetry (two-sided) in rank tests. If neither rejects the null (rank
+     and time-reversal asymmetry (two-sided, at level max(0.05, 2/(K+1)): 0.1 with K = 19)
+     in rank tests. If neither rejects the null (rank
      p ≤ 0.05, and the data at least 3 surrogate standard deviations away), the regime is
      stochastic, whatever λ1 says.
   3. Chaos. The null is rejected: chaotic if at least two of the three chaos indicators
@@ -50,16 +51,16 @@ func newRegimeCmd(a *app) *cobra.Command {
 		Use:   "regime FILE",
 		Short: "Verdict: periodic, quasiperiodic, chaotic, stochastic or undetermined, with evidence and cautions",
 		Long: `regime gathers the evidence — Welch spectrum and line analysis, the 0-1 test for chaos
-(Gottwald & Melbourne 2004, 2009; oversampled flows are first subsampled to every ⌈τ/2⌉-th
-sample, τ the delay), IAAFT
-surrogate tests (Schreiber & Schmitz 1996) of a nonlinear prediction error (Farmer & Sidorowich
-1987) and time-reversal asymmetry, the largest Lyapunov exponent (Kantz 1994) with its interval,
-the correlation dimension D2 and its saturation, and Cao's E2 — and decides the regime.
+(Gottwald & Melbourne 2004, 2009; an oversampled record is first subsampled to every
+⌈τ/2⌉-th sample, τ the delay), IAAFT surrogate tests (Schreiber & Schmitz 1996) of a nonlinear
+prediction error (Farmer & Sidorowich 1987) and of time-reversal asymmetry, the largest
+Lyapunov exponent (Kantz 1994) with its interval, the correlation dimension D2 and its
+saturation, and Cao's E2 — and decides the regime.
 
 ` + regimeRule + `
 
 The lag, dimension and Theiler window are chosen as 'unfold lag' and 'unfold dim' do unless
-given, and printed. The embedding choices, D2 and the surrogate tests use at most the first
+given, and printed. The embedding choices, λ1, D2 and the surrogate tests use at most the first
 20 000 samples; the spectrum and the 0-1 test use the whole record (the 0-1 test at most 20 000
 samples after subsampling).`,
 		Example: `  # a simulated Lorenz record: chaotic
