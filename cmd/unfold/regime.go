@@ -60,8 +60,8 @@ saturation, and Cao's E2 — and decides the regime.
 ` + regimeRule + `
 
 The lag, dimension and Theiler window are chosen as 'unfold lag' and 'unfold dim' do unless
-given, and printed. The embedding choices, λ1, D2 and the surrogate tests use at most the first
-20 000 samples; the spectrum and the 0-1 test use the whole record (the 0-1 test at most 20 000
+given, and printed. The embedding choices, λ1 and the surrogate tests use at most the first
+20 000 samples, D2 the first 10 000; the spectrum and the 0-1 test use the whole record (the 0-1 test at most 20 000
 samples after subsampling).`,
 		Example: `  # a simulated Lorenz record: chaotic
   unfold simulate lorenz --n 20000 -o lorenz.csv
