@@ -7,8 +7,8 @@ import (
 	"os/exec"
 	"path/filepath"
 	"regexp"
-	"sort"
 	"strings"
+	"syscall"
 	"testing"
 	"time"
 )
@@ -227,8 +227,17 @@ func waitDone(t *testing.T, arrayID, mergeID string) {
 	}
 }
 
-// TestSlurmArray runs the generated array on a real Slurm: a full run compared with a plain
-// `unfold batch`, then a run with one array task cancelled mid-run and its resubmission.
+// TestSlurmArray runs the generated array on a real Slurm over eight small inputs in three
+// shards (task 1 has inputs 3–5 of 8 in path order):
+//
+//  1. an array in which task 1 is cancelled mid-run: the third input is a named pipe that no
+//     one writes, so task 1 finishes input 3, then blocks on input 4 until it is cancelled;
+//  2. input 4 becomes a regular signal and a plain `unfold batch` of all inputs gives the
+//     reference summary;
+//  3. a full array + merge in a fresh folder: summary.csv equals the plain one, the corrupt
+//     input has status error;
+//  4. run 1 is submitted again: the merge's summary.csv equals the plain one and only the two
+//     inputs task 1 had not finished were computed.
 func TestSlurmArray(t *testing.T) {
 	dir := slurmEnv(t)
 	bin := filepath.Join(dir, "unfold")
@@ -243,102 +252,127 @@ func TestSlurmArray(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
+	var jobs []string
+	t.Cleanup(func() { // nothing of ours may stay queued or blocked
+		if len(jobs) > 0 {
+			exec.Command("scancel", jobs...).Run()
+		}
+	})
 
-	// Small signals of our own model systems, and one corrupt file.
+	// Small signals of our own model systems, one corrupt file and one named pipe.
 	data := filepath.Join(dir, "data")
 	if err := os.Mkdir(data, 0o755); err != nil {
 		t.Fatal(err)
 	}
+	names := []string{"s0-lorenz", "s1-rossler", "s2-henon", "s3-logistic", "s4-sines", "s5-corrupt", "s6-ar", "s7-noise"}
 	var inputs []string
-	for i, model := range []string{"lorenz", "rossler", "henon", "logistic", "sines", "ar"} {
-		p := filepath.Join(data, fmt.Sprintf("s%d-%s.csv", i, model))
+	for _, name := range names {
+		inputs = append(inputs, filepath.Join(data, name+".csv"))
+	}
+	simulate := func(p string) {
+		model := strings.TrimSuffix(filepath.Base(p), ".csv")[3:]
 		mustRun(t, dir, bin, "simulate", model, "--n", "3000", "--quiet", "-o", p)
-		inputs = append(inputs, p)
 	}
-	corrupt := filepath.Join(data, "s3b-corrupt.csv")
-	if err := os.WriteFile(corrupt, []byte("t,x\n0,0.5\n1,0.25\n2,not-a-number\n3,0.75\n"), 0o644); err != nil {
-		t.Fatal(err)
+	corrupt, pipe := inputs[5], inputs[3]
+	for i, p := range inputs {
+		switch i {
+		case 5:
+			if err := os.WriteFile(p, []byte("t,x\n0,0.5\n1,0.25\n2,not-a-number\n3,0.75\n"), 0o644); err != nil {
+				t.Fatal(err)
+			}
+		case 3:
+			if err := syscall.Mkfifo(p, 0o644); err != nil {
+				t.Fatal(err)
+			}
+		default:
+			simulate(p)
+		}
 	}
-	inputs = append(inputs, corrupt)
-	sort.Strings(inputs)
 	list := filepath.Join(dir, "inputs.txt")
 	if err := os.WriteFile(list, []byte(strings.Join(inputs, "\n")+"\n"), 0o644); err != nil {
 		t.Fatal(err)
 	}
 
-	// The reference: one plain run of the same inputs, no shards, no scheduler.
+	// 1. Task 1 cancelled mid-run.
 	t1 := time.Now()
-	plainDir := filepath.Join(dir, "plain")
-	cmd := exec.Command(bin, "batch", "--list", list, "-o", plainDir, "--threads", "1", "--quiet")
-	if out, err := cmd.CombinedOutput(); err != nil {
-		// A bad input is reported in its row; the exit status may say so.
-		if _, statErr := os.Stat(filepath.Join(plainDir, "summary.csv")); statErr != nil {
-			t.Fatalf("plain unfold batch: %v\n%s", err, out)
-		}
-	}
-	_, plain := readSummary(t, plainDir)
-	t.Logf("plain unfold batch over %d inputs: %v", len(inputs), time.Since(t1).Round(time.Millisecond))
-
-	// 1. The whole array and the merge job, waited for with sbatch --wait.
-	t2 := time.Now()
-	out1 := filepath.Join(dir, "run1")
-	arrayID, mergeID := submit(t, dir, gen, out1, bin, list)
-	waitDone(t, arrayID, mergeID)
-	t.Logf("array of 3 shards + merge under Slurm: %v", time.Since(t2).Round(time.Millisecond))
-	checkSummary(t, out1, inputs, corrupt, plain)
-	for k := 0; k < 3; k++ {
-		logs, _ := filepath.Glob(filepath.Join(out1, "slurm/logs", fmt.Sprintf("shard-*_%d.err", k)))
-		if len(logs) != 1 {
-			t.Errorf("task %d: %d error files in %s/slurm/logs, want 1", k, len(logs), out1)
-		}
-	}
-
-	// 2. Cancel one array task while it runs, then submit again: the resumed run computes the
-	// missing inputs only.
-	t3 := time.Now()
-	out2 := filepath.Join(dir, "run2")
-	arrayID, mergeID = submit(t, dir, gen, out2, bin, list)
+	resumed := filepath.Join(dir, "resumed")
+	arrayID, mergeID := submit(t, dir, gen, resumed, bin, list)
+	jobs = append(jobs, arrayID, mergeID)
 	victim := arrayID + "_1"
-	deadline := time.Now().Add(30 * time.Second)
+	deadline := time.Now().Add(60 * time.Second)
 	for {
 		// Until the scheduler splits it off, a pending task is listed in a range ("1-2").
 		st, split := jobStates(t, victim)["1"]
-		if st == "RUNNING" {
+		done, _ := filepath.Glob(filepath.Join(resumed, "s2-henon-*", "result.json"))
+		if st == "RUNNING" && len(done) == 1 {
 			break
 		}
 		if split && !active(st) {
 			t.Fatalf("task %s ended (%s) before it could be cancelled", victim, st)
 		}
 		if time.Now().After(deadline) {
-			t.Fatalf("task %s did not start within 30 s", victim)
+			t.Fatalf("task %s: state %s, %d results of its first input after 60 s", victim, st, len(done))
 		}
 		time.Sleep(50 * time.Millisecond)
 	}
 	mustRun(t, dir, "scancel", victim)
 	st := waitJob(t, arrayID, 60*time.Second)
-	if st["1"] != "CANCELLED" {
-		t.Fatalf("task 1 state %s after scancel, want CANCELLED (states %v)", st["1"], st)
+	for task, want := range map[string]string{"0": "COMPLETED", "1": "CANCELLED", "2": "COMPLETED"} {
+		if st[task] != want {
+			t.Errorf("array job %s task %s: %s, want %s (states %v)", arrayID, task, st[task], want, st)
+		}
 	}
 	if ms := waitJob(t, mergeID, 30*time.Second)[mergeID]; ms == "COMPLETED" {
 		t.Errorf("merge job %s ran although task 1 was cancelled (afterok)", mergeID)
 	}
-	before := snapshot(t, out2)
-	t.Logf("array with task 1 cancelled: %v; %d of %d results kept", time.Since(t3).Round(time.Millisecond), len(before), len(inputs))
+	before := snapshot(t, resumed)
+	if len(before) != len(inputs)-2 {
+		t.Errorf("after cancelling task 1: %d result folders, want %d (all but inputs 4 and 5): %v", len(before), len(inputs)-2, before)
+	}
+	t.Logf("array with task 1 cancelled mid-run: %v", time.Since(t1).Round(time.Millisecond))
 
+	// 2. The blocked input becomes a signal; the plain run of all inputs is the reference.
+	if err := os.Remove(pipe); err != nil {
+		t.Fatal(err)
+	}
+	simulate(pipe)
+	t2 := time.Now()
+	plainDir := filepath.Join(dir, "plain")
+	// The exit status is 0 with a bad input (its row says error); summary.csv must be there.
+	mustRun(t, dir, bin, "batch", "--list", list, "-o", plainDir, "--threads", "1", "--jobs", "1", "--quiet")
+	_, plain := readSummary(t, plainDir)
+	t.Logf("plain unfold batch over %d inputs: %v", len(inputs), time.Since(t2).Round(time.Millisecond))
+
+	// 3. The whole array and its merge in a fresh folder.
+	t3 := time.Now()
+	full := filepath.Join(dir, "full")
+	arrayID, mergeID = submit(t, dir, gen, full, bin, list)
+	jobs = append(jobs, arrayID, mergeID)
+	waitDone(t, arrayID, mergeID)
+	t.Logf("array of 3 shards + merge under Slurm: %v", time.Since(t3).Round(time.Millisecond))
+	checkSummary(t, full, inputs, corrupt, plain)
+	for k := 0; k < 3; k++ {
+		logs, _ := filepath.Glob(filepath.Join(full, "slurm/logs", fmt.Sprintf("shard-%s_%d.err", arrayID, k)))
+		if len(logs) != 1 {
+			t.Errorf("task %d: no error file shard-%s_%d.err in %s/slurm/logs", k, arrayID, k, full)
+		}
+	}
+
+	// 4. Run 1 submitted again: it computes only the two inputs task 1 had not finished.
 	t4 := time.Now()
-	arrayID, mergeID = submit(t, dir, gen, out2, bin, list)
+	arrayID, mergeID = submit(t, dir, gen, resumed, bin, list)
+	jobs = append(jobs, arrayID, mergeID)
 	waitDone(t, arrayID, mergeID)
 	t.Logf("resubmitted array + merge: %v", time.Since(t4).Round(time.Millisecond))
-	checkSummary(t, out2, inputs, corrupt, plain)
-	after := snapshot(t, out2)
+	checkSummary(t, resumed, inputs, corrupt, plain)
+	after := snapshot(t, resumed)
 	for f, v := range before {
 		if w := after[f]; w != v {
 			t.Errorf("resumed run wrote %s/result.json again (size and time %s, then %s): only missing inputs may be computed", f, v, w)
 		}
 	}
-	if len(before) >= len(inputs) || len(after) != len(inputs) {
-		t.Errorf("result folders: %d after the cancelled run, %d after the resumed run; want fewer than %d, then %d",
-			len(before), len(after), len(inputs), len(inputs))
+	if len(after) != len(inputs) {
+		t.Errorf("after the resumed run: %d result folders, want %d", len(after), len(inputs))
 	}
 	t.Logf("Slurm test total %v", time.Since(t0).Round(time.Millisecond))
 }
