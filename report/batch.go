@@ -89,6 +89,9 @@ func ListInputs(args []string, list io.Reader, listName string) ([]string, error
 				return nil, fmt.Errorf("batch: pattern %q matches no file", n)
 			}
 			for _, p := range m {
+				if strings.HasPrefix(filepath.Base(p), ".") {
+					continue // as a shell would: patterns do not match hidden files
+				}
 				if fi, err := os.Stat(p); err == nil && fi.Mode().IsRegular() {
 					add(p)
 				}

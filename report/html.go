@@ -100,10 +100,10 @@ type pageTime struct{ Key, Seconds, Share, Status string }
 
 type pageData struct {
 	Title, Status, Dt, Wall, Version, Commit, CommandLine, Seeds, Started string
-	Samples                                                            int
-	Input                                                              Input
-	Sections                                                           []pageSection
-	Times                                                              []pageTime
+	Samples                                                               int
+	Input                                                                 Input
+	Sections                                                              []pageSection
+	Times                                                                 []pageTime
 }
 
 // inlineSVG strips the XML prolog of an SVG document so that it can stand inside HTML. The

@@ -45,6 +45,8 @@ an answer (the message says why), 2 bad usage or bad input (the message says wha
 		newSectionCmd(a),
 		newSymbolsCmd(a),
 		newEntropyCmd(a),
+		newReportCmd(a),
+		newBatchCmd(a),
 		newDenoiseCmd(a),
 	)
 	return root
