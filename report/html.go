@@ -6,6 +6,7 @@ import (
 	"html/template"
 	"io"
 	"strconv"
+	"strings"
 )
 
 // page is the HTML page: one column, inline CSS, inline SVG, no scripts and no fetched fonts.
@@ -126,7 +127,10 @@ func (r *Result) writeHTML(w io.Writer, svgs map[string][]byte) error {
 		if i > 0 {
 			cl += " "
 		}
-		cl += strconv.Quote(a)
+		if a == "" || strings.ContainsAny(a, " \t\n\"'\\$`*?[]<>|;&()#~") {
+			a = strconv.Quote(a)
+		}
+		cl += a
 	}
 	seeds := ""
 	for k, v := range r.Provenance.Seeds {

@@ -296,7 +296,7 @@ func (a *app) reportStages(path string, s *series.Series, in *inputInfo, o *repo
 			if err != nil {
 				return nil, err
 			}
-			f, err := report.SignalFigure("signal", s.Name, s.Unit, fig.TimeUnit, s.Values, s.Dt, 4000)
+			f, err := report.SignalFigure("signal", s.Name, s.Unit, fig.TimeUnit, s.Values, s.Dt, 1500)
 			if err != nil {
 				return nil, fmt.Errorf("inspect: figure: %w", err)
 			}
@@ -374,7 +374,7 @@ func (a *app) reportStages(path string, s *series.Series, in *inputInfo, o *repo
 			sec := &report.Section{JSON: js, Cautions: res.Cautions, Summary: [][2]string{
 				{"chosen dimension", chosen},
 				{"rule", c.Method + ": " + c.Reason},
-				{"false neighbours / Cao", fmt.Sprintf("dimension %d / %d", c.FNNDim, c.CaoDim)},
+				{"false neighbours / Cao", dimText(c.FNNDim, c.MaxDim) + " / " + dimText(c.CaoDim, c.MaxDim)},
 				{"consistent with noise (E2 ≈ 1)", strconv.FormatBool(c.NoiseLike)},
 				{"lag, Theiler window", fmt.Sprintf("%d samples (%s), %d samples (%s)", p.Lag, p.LagMethod, p.Theiler, p.TheilerFrom)},
 			}, Figures: []report.Figure{{Name: "dim",
@@ -401,13 +401,15 @@ func (a *app) reportStages(path string, s *series.Series, in *inputInfo, o *repo
 			if err != nil {
 				return nil, err
 			}
-			rows, err := embed.StateSpacePlots(e, fig, embed.StateSpaceOptions{Azimuth: o.azimuth, Elevation: o.elevation, DensityAbove: 3000})
+			rows, err := embed.StateSpacePlots(e, fig, embed.StateSpaceOptions{Azimuth: o.azimuth, Elevation: o.elevation, DensityAbove: 3000, Bins: 140})
 			if err != nil {
 				return nil, fmt.Errorf("embed: figure: %w", err)
 			}
-			w, h := 7*vg.Inch, 6.5*vg.Inch
+			// smaller canvases than the command's: the page scales them to one column, and
+			// gonum's text keeps its size in points
+			w, h := 6*vg.Inch, 5.5*vg.Inch
 			if len(rows[0]) > 1 {
-				w, h = 14*vg.Inch, 6.5*vg.Inch
+				w, h = 11*vg.Inch, 5*vg.Inch
 			}
 			return &report.Section{JSON: js, Cautions: res.Cautions, Summary: [][2]string{
 				{"delay vectors", fmt.Sprintf("%d of dimension %d at lag %d samples", res.Vectors, res.Dimension, res.Lag)},
@@ -426,4 +428,12 @@ func (a *app) reportStages(path string, s *series.Series, in *inputInfo, o *repo
 		// summary.csv already reads lambda_max, d2, regime and confidence from those keys.
 	}
 	return stages
+}
+
+// dimText is a dimension found by one criterion, or "none up to MAX" when it found none.
+func dimText(d, maxDim int) string {
+	if d <= 0 {
+		return "none up to " + strconv.Itoa(maxDim)
+	}
+	return strconv.Itoa(d)
 }
