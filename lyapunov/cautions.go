@@ -33,7 +33,11 @@ func (r *Result) cautions(o Options) {
 		}
 	}
 	if ch.FitErr == nil {
-		if ch.Fit.Plateau && r.AutoRange {
+		if ch.Fit.Plateau && r.AutoRange && (r.From != 1 || r.To != r.Horizon) {
+			r.Cautions = append(r.Cautions, fmt.Sprintf(
+				"no stable stretch of the divergence curve raises the separation by a factor e within the %d steps, though the curve as a whole does rise: the slope is read over the longest stable stretch, steps %d…%d; a longer --horizon may show the exponential growth more clearly",
+				r.Horizon, r.From, r.To))
+		} else if ch.Fit.Plateau && r.AutoRange {
 			r.Cautions = append(r.Cautions, fmt.Sprintf(
 				"no stable stretch of the divergence curve raises the separation by a factor e: the separation stays bounded over the %d steps (periodic or quasiperiodic motion, or noise), so the slope is the mean growth over steps %d…%d and is expected near 0",
 				r.Horizon, r.From, r.To))

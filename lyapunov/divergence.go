@@ -411,7 +411,8 @@ func (o Options) fitCurve(y []float64) (fit.Range, error) {
 		}
 		return fit.Range{From: o.FitFrom, To: o.FitTo, Line: l, Median: l.Slope}, nil
 	}
-	rg, err := fit.ScalingRange(steps, y, o.rangeOptions(y))
+	ro := o.rangeOptions(y)
+	rg, err := fit.ScalingRange(steps, y, ro)
 	if err != nil {
 		if errors.Is(err, fit.ErrNoRange) {
 			return fit.Range{}, fmt.Errorf("divergence curve: %w", err)
@@ -419,12 +420,19 @@ func (o Options) fitCurve(y []float64) (fit.Range, error) {
 		return fit.Range{}, err
 	}
 	if rg.Plateau && o.Horizon >= 3 {
-		// No stable range raises the separation by a factor e: the curve is bounded over the
-		// horizon. Its mean growth rate is read over the whole horizon after the first step.
+		// No stable range raises the separation by a factor e. Only when the curve itself
+		// rises by less than that over the whole horizon is it bounded, and its mean growth
+		// rate is read over the whole horizon after the first step; a curve that does rise
+		// (noise delays the exponential stretch) keeps the finder's longest stable range.
+		top := math.Inf(-1)
 		for k := 1; k <= o.Horizon; k++ {
 			if math.IsNaN(y[k]) {
 				return rg, nil
 			}
+			top = math.Max(top, y[k])
+		}
+		if ro.FlatRise > 0 && top-y[1] >= ro.FlatRise {
+			return rg, nil
 		}
 		l, err := fit.LeastSquares(steps[1:], y[1:])
 		if err != nil {
