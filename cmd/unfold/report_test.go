@@ -325,3 +325,21 @@ func readCSV(t *testing.T, p string) [][]string {
 	}
 	return r
 }
+
+// TestCompletion: the completion scripts are written and complete our commands and flags.
+func TestCompletion(t *testing.T) {
+	for sh, head := range map[string]string{"bash": "# bash completion", "zsh": "#compdef unfold", "fish": "# fish completion"} {
+		so, se, code := runCLI(t, "", "completion", sh)
+		if code != 0 || !strings.HasPrefix(so, head) {
+			t.Errorf("completion %s: exit %d, starts %.40q: %s", sh, code, so, se)
+		}
+	}
+	so, _, _ := runCLI(t, "", "__complete", "ba")
+	if !strings.Contains(so, "batch") {
+		t.Errorf("no completion of 'ba' to batch: %q", so)
+	}
+	so, _, _ = runCLI(t, "", "__complete", "batch", "--sh")
+	if !strings.Contains(so, "--shard") {
+		t.Errorf("no completion of --sh to --shard: %q", so)
+	}
+}

@@ -47,6 +47,7 @@ an answer (the message says why), 2 bad usage or bad input (the message says wha
 		newEntropyCmd(a),
 		newReportCmd(a),
 		newBatchCmd(a),
+		newCompletionCmd(),
 		newDenoiseCmd(a),
 	)
 	return root
