@@ -39,7 +39,7 @@ if need_install; then
   log=$(mktemp)
   inst() {
     DEBIAN_FRONTEND=noninteractive timeout 300 apt-get install -y -q --no-install-recommends \
-      -o Dpkg::Use-Pty=0 slurmctld slurmd slurm-client munge >>"$log" 2>&1
+      -o Dpkg::Use-Pty=0 -o DPkg::Lock::Timeout=60 slurmctld slurmd slurm-client munge >>"$log" 2>&1
   }
   ok=0
   if inst; then ok=1
@@ -153,7 +153,7 @@ for _ in $(seq 1 50); do [ -S "$sock" ] && break; sleep 0.1; done
 
 slurmctld -D -i >"$work/slurmctld.out" 2>&1 &
 pids+=($!)
-slurmd -D >"$work/slurmd.out" 2>&1 &
+slurmd -D -N "$node" >"$work/slurmd.out" 2>&1 &
 pids+=($!)
 
 up=0
