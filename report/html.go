@@ -150,6 +150,9 @@ func (r *Result) writeHTML(w io.Writer, svgs map[string][]byte) error {
 		if s, ok := r.Sections[k]; ok {
 			ps.Rows, ps.Cautions = s.Summary, s.Cautions
 			for _, f := range s.Figures {
+				if f.svg == nil {
+					continue
+				}
 				ps.Figures = append(ps.Figures, pageFigure{Name: f.Name, Caption: f.Caption, SVG: inlineSVG(svgs[f.Name])})
 			}
 		}

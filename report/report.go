@@ -34,6 +34,7 @@ type Figure struct {
 	Width   vg.Length
 	Height  vg.Length
 	Rows    [][]*plot.Plot
+	svg     []byte // drawn by Run, inside the stage's wall time
 }
 
 // Section is what one stage returns.
@@ -66,7 +67,8 @@ type Input struct {
 	Dt      float64 `json:"dt"`
 }
 
-// StageRecord is the provenance of one stage: its wall time and whether it gave an answer.
+// StageRecord is the provenance of one stage: its wall time (computing and drawing its
+// figures) and whether it gave an answer.
 type StageRecord struct {
 	Key     string  `json:"key"`
 	Seconds float64 `json:"seconds"`
@@ -143,6 +145,19 @@ func Run(h Header, stages []Stage, before func(key string), after func(key strin
 		sec, err := st.Run()
 		if err == nil && (sec == nil || !json.Valid(sec.JSON)) {
 			err = fmt.Errorf("%s: the stage returned no valid JSON object", st.Key)
+		}
+		if sec != nil {
+			for i := range sec.Figures {
+				f := &sec.Figures[i]
+				var b bytes.Buffer
+				if ferr := embed.WriteFigure(&b, "svg", f.Width, f.Height, f.Rows); ferr != nil {
+					if err == nil {
+						err = fmt.Errorf("%s: figure %s: %w", st.Key, f.Name, ferr)
+					}
+					continue
+				}
+				f.svg = b.Bytes()
+			}
 		}
 		took := time.Since(t0)
 		rec := StageRecord{Key: st.Key, Seconds: took.Seconds(), Status: StatusOK}
@@ -248,12 +263,11 @@ func (r *Result) WriteDir(dir string, opt WriteOptions) ([]string, error) {
 			continue
 		}
 		for _, fg := range s.Figures {
-			var b bytes.Buffer
-			if err := embed.WriteFigure(&b, "svg", fg.Width, fg.Height, fg.Rows); err != nil {
-				return written, fmt.Errorf("report: figure %s: %w", fg.Name, err)
+			if fg.svg == nil {
+				continue // the figure could not be drawn; the stage's error says why
 			}
-			svgs[fg.Name] = b.Bytes()
-			if err := write(filepath.Join(figDir, fg.Name+".svg"), b.Bytes()); err != nil {
+			svgs[fg.Name] = fg.svg
+			if err := write(filepath.Join(figDir, fg.Name+".svg"), fg.svg); err != nil {
 				return written, err
 			}
 			if opt.PNG {
