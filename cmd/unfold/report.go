@@ -341,7 +341,7 @@ func (a *app) reportStages(path string, s *series.Series, in *inputInfo, o *repo
 				{"chosen lag", fmt.Sprintf("%d samples = %s time units", c.Lag, fmtG(res.LagTime))},
 				{"rule", c.Method + ": " + c.Reason},
 				{"estimator", p.Estimator},
-				{"autocorrelation", fmt.Sprintf("first zero at lag %d, 1/e decay at lag %d", res.AutocorrelationZero, res.AutocorrelationDecay)},
+				{"autocorrelation", acfText(res.AutocorrelationZero, res.AutocorrelationDecay, p.MaxLag)},
 				{"suggested Theiler window", strconv.Itoa(res.Theiler) + " samples"},
 			}
 			if o.lag > 0 {
@@ -436,4 +436,16 @@ func dimText(d, maxDim int) string {
 		return "none up to " + strconv.Itoa(maxDim)
 	}
 	return strconv.Itoa(d)
+}
+
+// acfText describes the autocorrelation's first zero and 1/e decay (0 = not reached in the scan).
+func acfText(zero, decay, maxLag int) string {
+	z, d := "no zero up to lag "+strconv.Itoa(maxLag), "no 1/e decay up to lag "+strconv.Itoa(maxLag)
+	if zero > 0 {
+		z = "first zero at lag " + strconv.Itoa(zero)
+	}
+	if decay > 0 {
+		d = "1/e decay at lag " + strconv.Itoa(decay)
+	}
+	return z + ", " + d
 }
