@@ -43,7 +43,7 @@ footer { margin-top: 2.5rem; color: #666; font-size: .8rem; border-top: 1px soli
 @media print {
   body { max-width: none; margin: 0; padding: 0; font-size: 10.5pt; }
   h2 { break-after: avoid; page-break-after: avoid; }
-  nav { display: none; }
+  nav, footer { display: none; } /* the provenance table holds the version */
   a { color: inherit; text-decoration: none; }
 }
 </style>
