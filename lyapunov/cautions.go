@@ -39,7 +39,7 @@ func (r *Result) cautions(o Options) {
 				r.Horizon, r.From, r.To))
 		} else if ch.Fit.Plateau && r.AutoRange {
 			r.Cautions = append(r.Cautions, fmt.Sprintf(
-				"no stable stretch of the divergence curve raises the separation by a factor e: the separation stays bounded over the %d steps (periodic or quasiperiodic motion, or noise), so the slope is the mean growth over steps %d…%d and is expected near 0",
+				"no stable stretch of the divergence curve raises the separation by a factor e: the separation stays bounded over the %d steps (periodic or quasiperiodic motion, noise, or a horizon too short for exponential growth to show — try a longer --horizon), so the slope is the mean growth over steps %d…%d and is expected near 0 for bounded motion",
 				r.Horizon, r.From, r.To))
 		}
 		if n := r.To - r.From; n < 4 {
