@@ -10,6 +10,7 @@ import (
 	"strconv"
 
 	"github.com/spf13/cobra"
+	"github.com/spf13/pflag"
 
 	"unfold/series"
 	"unfold/symbolic"
@@ -55,13 +56,17 @@ normalised by log2(D!).`,
 		},
 	}
 	addInputFlags(cmd, &o.in)
-	f := cmd.Flags()
+	addEntropyFlags(cmd.Flags(), o)
+	return cmd
+}
+
+// addEntropyFlags binds the flags of entropy (the report takes their defaults from here).
+func addEntropyFlags(f *pflag.FlagSet, o *entropyOptions) {
 	f.IntVar(&o.maxLength, "max-length", 0, "longest word length L (default: the supported length plus 2)")
 	f.StringVar(&o.estimator, "estimator", "grassberger", "block-entropy estimator: grassberger, miller-madow or plugin")
 	f.IntVar(&o.permutation, "permutation", 0, "permutation entropy of order D (2 … 10) of a numeric signal instead of a symbol stream")
 	f.IntVar(&o.delay, "delay", 1, "with --permutation: spacing of the samples of a pattern")
 	f.IntVar(&o.lzMax, "lz-max", 20_000_000, "Lempel–Ziv complexity of the first N symbols only (it keeps them in memory, about 9·N bytes); block entropies always use the whole stream")
-	return cmd
 }
 
 type entropyParams struct {
@@ -90,9 +95,88 @@ type entropyResult struct {
 	Cautions       []string               `json:"cautions"`
 }
 
-func (a *app) runEntropy(path string, o *entropyOptions) error {
+// entropyCompute reads the symbol stream r (named path, checked against its sidecar sc) and
+// returns the JSON input, parameters and body of `entropy`; the command and the report both
+// use it. The input's SHA-256 is that of the stream's bytes as read.
+func (a *app) entropyCompute(path string, r io.Reader, sc *symbolic.Sidecar, o *entropyOptions) (*inputInfo, entropyParams, entropyResult, error) {
 	est, err := symbolic.ParseEstimator(o.estimator)
 	if err != nil {
+		return nil, entropyParams{}, entropyResult{}, usagef("entropy: --estimator: %v", err)
+	}
+	h := sha256.New()
+	sr, err := symbolic.NewReader(io.TeeReader(r, h), sc, path)
+	if err != nil {
+		return nil, entropyParams{}, entropyResult{}, err
+	}
+	k := sc.AlphabetSize
+	maxL := o.maxLength
+	if maxL == 0 {
+		maxL = symbolic.DefaultMaxLength(sc.Count, k)
+	}
+	if lim := symbolic.MaxWordLength(k); maxL > lim {
+		return nil, entropyParams{}, entropyResult{}, usagef("entropy: --max-length %d is too long for %d symbols (at most %d)", maxL, k, lim)
+	}
+	if k < 2 {
+		return nil, entropyParams{}, entropyResult{}, noAnswer(fmt.Errorf("entropy: %s: the alphabet has one symbol: every entropy is 0", path))
+	}
+	bc, err := symbolic.NewBlockCounter(k, maxL)
+	if err != nil {
+		return nil, entropyParams{}, entropyResult{}, usagef("entropy: %v", err)
+	}
+	// block counts stream over the whole stream; LZ76 needs its symbols in memory, so it
+	// keeps at most --lz-max of them
+	if o.lzMax < 2 {
+		return nil, entropyParams{}, entropyResult{}, usagef("entropy: --lz-max must be ≥ 2")
+	}
+	all := make([]uint8, 0, min(sc.Count, int64(o.lzMax)))
+	var total int64
+	buf := make([]uint8, 1<<15)
+	for {
+		n, err := sr.Read(buf)
+		if n > 0 {
+			if err := bc.Add(buf[:n]); err != nil {
+				return nil, entropyParams{}, entropyResult{}, err
+			}
+			total += int64(n)
+			if room := o.lzMax - len(all); room > 0 {
+				all = append(all, buf[:min(n, room)]...)
+			}
+		}
+		if err == io.EOF {
+			break
+		}
+		if err != nil {
+			return nil, entropyParams{}, entropyResult{}, err
+		}
+	}
+	if len(all) < 2 {
+		return nil, entropyParams{}, entropyResult{}, noAnswer(fmt.Errorf("entropy: %s: %d symbols are too few", path, len(all)))
+	}
+	res, err := symbolic.Analyze(bc, est)
+	if err != nil {
+		return nil, entropyParams{}, entropyResult{}, noAnswer(fmt.Errorf("entropy: %s: %w", path, err))
+	}
+	lz, err := symbolic.Complexity(all, k)
+	if err != nil {
+		return nil, entropyParams{}, entropyResult{}, noAnswer(fmt.Errorf("entropy: %s: %w", path, err))
+	}
+	cautions := res.Cautions
+	if int64(len(all)) < total {
+		cautions = append(cautions, fmt.Sprintf("the Lempel–Ziv complexity is of the first %d of %d symbols (--lz-max)", len(all), total))
+	}
+	if cautions == nil {
+		cautions = []string{}
+	}
+	in := &inputInfo{Path: path, SHA256: hex.EncodeToString(h.Sum(nil)), Samples: int(total), Dt: 1}
+	return in,
+		entropyParams{Estimator: res.Estimator, MaxLength: maxL, RateLength: res.RateLength, Alphabet: sc.Alphabet, Extrapolation: res.Extrapolation, LZMax: o.lzMax},
+		entropyResult{EntropyRate: res.EntropyRate, ExcessEntropy: res.ExcessEntropy, BlockEntropies: res.Blocks,
+			EntropyRates: res.Rates, LZ76: lz.Normalized, LZ76Detail: lz76JSON{Phrases: lz.Phrases, Normalized: lz.Normalized},
+			Partition: sc.Partition, Source: sc.Source, Cautions: cautions}, nil
+}
+
+func (a *app) runEntropy(path string, o *entropyOptions) error {
+	if _, err := symbolic.ParseEstimator(o.estimator); err != nil {
 		return usagef("entropy: --estimator: %v", err)
 	}
 	if o.maxLength < 0 {
@@ -119,97 +203,32 @@ func (a *app) runEntropy(path string, o *entropyOptions) error {
 		return err
 	}
 	defer f.Close()
-	h := sha256.New()
-	r, err := symbolic.NewReader(io.TeeReader(f, h), sc, path)
+	in, p, res, err := a.entropyCompute(path, f, sc, o)
 	if err != nil {
 		return err
 	}
-	k := sc.AlphabetSize
-	maxL := o.maxLength
-	if maxL == 0 {
-		maxL = symbolic.DefaultMaxLength(sc.Count, k)
-	}
-	if lim := symbolic.MaxWordLength(k); maxL > lim {
-		return usagef("entropy: --max-length %d is too long for %d symbols (at most %d)", maxL, k, lim)
-	}
-	if k < 2 {
-		return noAnswer(fmt.Errorf("entropy: %s: the alphabet has one symbol: every entropy is 0", path))
-	}
-	bc, err := symbolic.NewBlockCounter(k, maxL)
-	if err != nil {
-		return usagef("entropy: %v", err)
-	}
-	// block counts stream over the whole stream; LZ76 needs its symbols in memory, so it
-	// keeps at most --lz-max of them
-	if o.lzMax < 2 {
-		return usagef("entropy: --lz-max must be ≥ 2")
-	}
-	all := make([]uint8, 0, min(sc.Count, int64(o.lzMax)))
-	var total int64
-	buf := make([]uint8, 1<<15)
-	for {
-		n, err := r.Read(buf)
-		if n > 0 {
-			if err := bc.Add(buf[:n]); err != nil {
-				return err
-			}
-			total += int64(n)
-			if room := o.lzMax - len(all); room > 0 {
-				all = append(all, buf[:min(n, room)]...)
-			}
-		}
-		if err == io.EOF {
-			break
-		}
-		if err != nil {
-			return err
-		}
-	}
-	if len(all) < 2 {
-		return noAnswer(fmt.Errorf("entropy: %s: %d symbols are too few", path, len(all)))
-	}
-	res, err := symbolic.Analyze(bc, est)
-	if err != nil {
-		return noAnswer(fmt.Errorf("entropy: %s: %w", path, err))
-	}
-	lz, err := symbolic.Complexity(all, k)
-	if err != nil {
-		return noAnswer(fmt.Errorf("entropy: %s: %w", path, err))
-	}
-	cautions := res.Cautions
-	if int64(len(all)) < total {
-		cautions = append(cautions, fmt.Sprintf("the Lempel–Ziv complexity is of the first %d of %d symbols (--lz-max)", len(all), total))
-	}
-	if cautions == nil {
-		cautions = []string{}
-	}
-	in := &inputInfo{Path: path, SHA256: hex.EncodeToString(h.Sum(nil)), Samples: int(total), Dt: 1}
 	if a.global.JSON {
-		return a.emitJSON("entropy", in,
-			entropyParams{Estimator: res.Estimator, MaxLength: maxL, RateLength: res.RateLength, Alphabet: sc.Alphabet, Extrapolation: res.Extrapolation, LZMax: o.lzMax},
-			entropyResult{EntropyRate: res.EntropyRate, ExcessEntropy: res.ExcessEntropy, BlockEntropies: res.Blocks,
-				EntropyRates: res.Rates, LZ76: lz.Normalized, LZ76Detail: lz76JSON{Phrases: lz.Phrases, Normalized: lz.Normalized},
-				Partition: sc.Partition, Source: sc.Source, Cautions: cautions})
+		return a.emitJSON("entropy", in, p, res)
 	}
 	g := func(v float64) string { return strconv.FormatFloat(v, 'f', 4, 64) }
 	rows := [][]string{
 		{"file", path},
-		{"symbols", fmt.Sprintf("%d over %q (%s partition of %s)", total, sc.Alphabet, sc.Partition.Kind, sc.Source.Path)},
-		{"entropy rate", g(res.EntropyRate) + " bits/symbol at L = " + strconv.Itoa(res.RateLength)},
+		{"symbols", fmt.Sprintf("%d over %q (%s partition of %s)", in.Samples, sc.Alphabet, sc.Partition.Kind, sc.Source.Path)},
+		{"entropy rate", g(res.EntropyRate) + " bits/symbol at L = " + strconv.Itoa(p.RateLength)},
 		{"excess entropy", g(res.ExcessEntropy) + " bits"},
-		{"LZ76", fmt.Sprintf("%s normalised (%d phrases)", g(lz.Normalized), lz.Phrases)},
+		{"LZ76", fmt.Sprintf("%s normalised (%d phrases)", g(res.LZ76), res.LZ76Detail.Phrases)},
 		{"", ""},
 		{"L", "H(L) bits", "h(L) bits", "words", "distinct", "supported"},
 	}
-	for i, b := range res.Blocks {
-		rows = append(rows, []string{strconv.Itoa(b.Length), g(b.Bits), g(res.Rates[i].Bits),
+	for i, b := range res.BlockEntropies {
+		rows = append(rows, []string{strconv.Itoa(b.Length), g(b.Bits), g(res.EntropyRates[i].Bits),
 			strconv.FormatInt(b.Words, 10), strconv.Itoa(b.Distinct), strconv.FormatBool(b.Supported)})
 	}
 	if err := a.table(rows); err != nil {
 		return err
 	}
-	fmt.Fprintf(a.stdout, "estimate: %s\n", res.Extrapolation)
-	for _, c := range cautions {
+	fmt.Fprintf(a.stdout, "estimate: %s\n", p.Extrapolation)
+	for _, c := range res.Cautions {
 		fmt.Fprintf(a.stdout, "caution: %s\n", c)
 	}
 	return nil

@@ -133,6 +133,47 @@ func (a *app) sectionOpts(x []float64, lag, dim int, level, direction, interp st
 	return opt, lagMethod, levelFrom, cautions, nil
 }
 
+// sectionRun is what sectionCompute found, for the command's files and figure.
+type sectionRun struct {
+	sec       *partition.Section
+	header    []string // CSV header of the crossings
+	valueName string   // the value the return map is drawn of
+	lagMethod string
+	levelFrom string
+}
+
+// sectionCompute takes the section of s as `section` does and returns it with the JSON
+// parameters and body of `section` (the body names o.output and o.plot; the caller writes
+// them).
+func (a *app) sectionCompute(path string, s *series.Series, o *sectionOptions) (*sectionRun, sectionParams, sectionResult, error) {
+	if err := series.CheckVariable(s.Values); err != nil {
+		return nil, sectionParams{}, sectionResult{}, err
+	}
+	opt, lagMethod, levelFrom, cautions, err := a.sectionOpts(s.Values, o.lag, o.dim, o.level, o.direction, o.interp, o.maxima)
+	if err != nil {
+		return nil, sectionParams{}, sectionResult{}, err
+	}
+	sec, err := partition.TakeSection(s.Values, s.Dt, s.T0, opt)
+	if err != nil {
+		return nil, sectionParams{}, sectionResult{}, noAnswer(fmt.Errorf("section: %s: %w", path, err))
+	}
+	cautions = append(cautions, sec.Cautions...)
+	header, valueName := sectionColumns(sec, s.Name)
+	if cautions == nil {
+		cautions = []string{}
+	}
+	res := sectionResult{Crossings: sec.Len(), Rate: sec.Rate, MeanReturn: sec.MeanReturn, Duration: sec.Duration,
+		ValueColumn: valueName, Output: o.output, Plot: o.plot, Cautions: cautions}
+	dir := map[int]string{1: "up", -1: "down", 0: "both"}[opt.Direction]
+	p := sectionParams{Column: s.Name, Method: sec.Method, Level: sec.Level, LevelFrom: levelFrom, Direction: dir, Interp: sec.Interp}
+	if sec.Method == "hyperplane" {
+		p.Lag, p.LagMethod, p.Dim = sec.Lag, lagMethod, sec.Dim
+	} else {
+		p.LevelFrom, p.Direction = "", ""
+	}
+	return &sectionRun{sec: sec, header: header, valueName: valueName, lagMethod: lagMethod, levelFrom: levelFrom}, p, res, nil
+}
+
 func (a *app) runSection(path string, o *sectionOptions) error {
 	if err := checkFigurePath(o.plot); err != nil {
 		return err
@@ -141,37 +182,11 @@ func (a *app) runSection(path string, o *sectionOptions) error {
 	if err != nil {
 		return err
 	}
-	if err := series.CheckVariable(s.Values); err != nil {
-		return err
-	}
-	opt, lagMethod, levelFrom, cautions, err := a.sectionOpts(s.Values, o.lag, o.dim, o.level, o.direction, o.interp, o.maxima)
+	run, p, res, err := a.sectionCompute(path, s, o)
 	if err != nil {
 		return err
 	}
-	sec, err := partition.TakeSection(s.Values, s.Dt, s.T0, opt)
-	if err != nil {
-		return noAnswer(fmt.Errorf("section: %s: %w", path, err))
-	}
-	cautions = append(cautions, sec.Cautions...)
-	header := []string{"t"}
-	valueName := "max_" + s.Name
-	if sec.Method == "hyperplane" {
-		if sec.Dim == 1 {
-			header = append(header, s.Name)
-			valueName = s.Name
-		} else {
-			for k := 1; k < sec.Dim; k++ {
-				if k == 1 {
-					header = append(header, s.Name+"(t+τ)")
-				} else {
-					header = append(header, fmt.Sprintf("%s(t+%dτ)", s.Name, k))
-				}
-			}
-			valueName = header[1]
-		}
-	} else {
-		header = append(header, valueName)
-	}
+	sec := run.sec
 	if o.output != "" {
 		cols := [][]float64{sec.Times}
 		for c := 0; c < sec.Width; c++ {
@@ -181,12 +196,12 @@ func (a *app) runSection(path string, o *sectionOptions) error {
 			}
 			cols = append(cols, col)
 		}
-		if err := writeCSVFile(o.output, path, header, cols...); err != nil {
+		if err := writeCSVFile(o.output, path, run.header, cols...); err != nil {
 			return err
 		}
 	}
 	if o.plot != "" {
-		p, err := returnMapPlot(sec.Values(), valueName, figureOf(path, s).Title)
+		p, err := returnMapPlot(sec.Values(), run.valueName, figureOf(path, s).Title)
 		if err != nil {
 			return err
 		}
@@ -194,26 +209,14 @@ func (a *app) runSection(path string, o *sectionOptions) error {
 			return err
 		}
 	}
-	if cautions == nil {
-		cautions = []string{}
-	}
-	res := sectionResult{Crossings: sec.Len(), Rate: sec.Rate, MeanReturn: sec.MeanReturn, Duration: sec.Duration,
-		ValueColumn: valueName, Output: o.output, Plot: o.plot, Cautions: cautions}
 	if a.global.JSON {
-		dir := map[int]string{1: "up", -1: "down", 0: "both"}[opt.Direction]
-		p := sectionParams{Column: s.Name, Method: sec.Method, Level: sec.Level, LevelFrom: levelFrom, Direction: dir, Interp: sec.Interp}
-		if sec.Method == "hyperplane" {
-			p.Lag, p.LagMethod, p.Dim = sec.Lag, lagMethod, sec.Dim
-		} else {
-			p.LevelFrom, p.Direction = "", ""
-		}
 		return a.emitJSON("section", in, p, res)
 	}
 	g := func(v float64) string { return strconv.FormatFloat(v, 'g', 6, 64) }
 	how := fmt.Sprintf("local maxima of %s (parabola refinement)", s.Name)
 	if sec.Method == "hyperplane" {
 		how = fmt.Sprintf("plane %s = %s (%s), lag %d (%s), dimension %d, direction %s, %s interpolation",
-			s.Name, g(sec.Level), levelFrom, sec.Lag, lagMethod, sec.Dim, o.direction, sec.Interp)
+			s.Name, g(sec.Level), run.levelFrom, sec.Lag, run.lagMethod, sec.Dim, o.direction, sec.Interp)
 	}
 	rows := [][]string{
 		{"file", path},
@@ -231,10 +234,36 @@ func (a *app) runSection(path string, o *sectionOptions) error {
 	if err := a.table(rows); err != nil {
 		return err
 	}
-	for _, c := range cautions {
+	for _, c := range res.Cautions {
 		fmt.Fprintf(a.stdout, "caution: %s\n", c)
 	}
 	return nil
+}
+
+// sectionColumns returns the CSV header of the crossings of sec taken from the signal called
+// name (t, then the in-plane coordinates or the height of the maximum) and the name of the
+// value the return map is drawn of.
+func sectionColumns(sec *partition.Section, name string) ([]string, string) {
+	header := []string{"t"}
+	valueName := "max_" + name
+	if sec.Method == "hyperplane" {
+		if sec.Dim == 1 {
+			header = append(header, name)
+			valueName = name
+		} else {
+			for k := 1; k < sec.Dim; k++ {
+				if k == 1 {
+					header = append(header, name+"(t+τ)")
+				} else {
+					header = append(header, fmt.Sprintf("%s(t+%dτ)", name, k))
+				}
+			}
+			valueName = header[1]
+		}
+	} else {
+		header = append(header, valueName)
+	}
+	return header, valueName
 }
 
 // returnMapPlot draws v[n+1] against v[n] with the diagonal.
