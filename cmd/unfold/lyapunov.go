@@ -8,12 +8,14 @@ import (
 	"strconv"
 
 	"github.com/spf13/cobra"
+	"github.com/spf13/pflag"
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/vg"
 
 	"unfold/embed"
 	"unfold/fit"
 	"unfold/lyapunov"
+	"unfold/neighbors"
 	"unfold/series"
 )
 
@@ -80,7 +82,12 @@ Exit status 1 when no range of the curve is linear (say --fit-from/--fit-to to f
 		},
 	}
 	addInputFlags(cmd, &o.in)
-	f := cmd.Flags()
+	addLyapunovFlags(cmd.Flags(), o)
+	return cmd
+}
+
+// addLyapunovFlags binds the flags of `lyapunov` (besides the input flags) to o, with their defaults.
+func addLyapunovFlags(f *pflag.FlagSet, o *lyapunovOptions) {
 	f.IntVar(&o.lag, "lag", 0, "delay in samples (default: chosen from the mutual information, as 'unfold lag')")
 	f.IntVar(&o.dim, "dim", 0, "embedding dimension (default: chosen by false neighbours / Cao, as 'unfold dim')")
 	f.IntVar(&o.maxDim, "max-dim", 10, "largest dimension scanned when --dim is chosen automatically")
@@ -98,7 +105,6 @@ Exit status 1 when no range of the curve is linear (say --fit-from/--fit-to to f
 	f.IntVar(&o.evolve, "evolve", 0, "--spectrum: steps spanned by each local map (default the lag)")
 	f.StringVar(&o.csvPath, "csv", "", "write the divergence curves to this CSV file (step, then mean_log per curve)")
 	f.StringVar(&o.plot, "plot", "", "draw the curves, the fit range and the fitted line (.png or .svg)")
-	return cmd
 }
 
 type lyapunovParams struct {
@@ -165,48 +171,73 @@ type lyapunovResult struct {
 	Cautions           []string          `json:"cautions"`
 }
 
-func (a *app) runLyapunov(path string, o *lyapunovOptions) error {
-	if err := checkFigurePath(o.plot); err != nil {
-		return err
-	}
+// lyapunovRun is what lyapunovCompute found, for the renderers (table, CSV, figure).
+type lyapunovRun struct {
+	r                               *lyapunov.Result
+	sp                              *lyapunov.SpectrumResult
+	method                          lyapunov.Method
+	lagMethod, dimMethod, theilerBy string
+}
+
+// checkLyapunovOptions validates the flags of `lyapunov`.
+func checkLyapunovOptions(o *lyapunovOptions) (lyapunov.Method, neighbors.Norm, error) {
 	method, err := lyapunov.ParseMethod(o.method)
 	if err != nil {
-		return usagef("lyapunov: --method %q: want kantz or rosenstein", o.method)
+		return 0, 0, usagef("lyapunov: --method %q: want kantz or rosenstein", o.method)
 	}
 	norm, err := parseNorm(o.norm)
 	if err != nil {
-		return err
+		return 0, 0, err
 	}
 	if o.lag < 0 || o.dim < 0 || o.horizon < 0 || o.maxNeighbors < 1 || o.reps < 2 || o.maxDim < 1 || o.neighbors < 0 || o.evolve < 0 {
-		return usagef("lyapunov: want --lag, --dim, --horizon, --neighbors, --evolve ≥ 0, --max-neighbors ≥ 1, --reps ≥ 2, --max-dim ≥ 1")
+		return 0, 0, usagef("lyapunov: want --lag, --dim, --horizon, --neighbors, --evolve ≥ 0, --max-neighbors ≥ 1, --reps ≥ 2, --max-dim ≥ 1")
 	}
 	if (o.fitFrom >= 0) != (o.fitTo >= 0) {
-		return usagef("lyapunov: give both --fit-from and --fit-to, or neither")
+		return 0, 0, usagef("lyapunov: give both --fit-from and --fit-to, or neither")
 	}
 	if o.fitTo >= 0 && o.fitTo <= o.fitFrom {
-		return usagef("lyapunov: --fit-to %d must be larger than --fit-from %d", o.fitTo, o.fitFrom)
+		return 0, 0, usagef("lyapunov: --fit-to %d must be larger than --fit-from %d", o.fitTo, o.fitFrom)
 	}
-	s, in, err := a.loadInput(path, &o.in)
+	return method, norm, nil
+}
+
+// lyapunovCompute estimates the largest exponent of s (choosing what o does not give) and
+// returns what the renderers need with the JSON parameters and body of `lyapunov`; the command
+// and the report both use it. lagMethod and dimMethod name the rules that chose o.lag and o.dim
+// when a caller chose them already (the report's earlier stages); "" means given or chosen
+// here. When the curve has no linear range the run, parameters and body are returned with a
+// no-answer error (the body then carries the curve and the reason).
+func (a *app) lyapunovCompute(path string, s *series.Series, o *lyapunovOptions, lagMethod, dimMethod string) (*lyapunovRun, lyapunovParams, lyapunovResult, error) {
+	fail := func(err error) (*lyapunovRun, lyapunovParams, lyapunovResult, error) {
+		return nil, lyapunovParams{}, lyapunovResult{}, err
+	}
+	method, norm, err := checkLyapunovOptions(o)
 	if err != nil {
-		return err
+		return fail(err)
 	}
 	if err := series.CheckVariable(s.Values); err != nil {
-		return err
+		return fail(err)
 	}
 	x := s.Values
-	lag, lagMethod, theiler, theilerFrom, cautions, err := a.embeddingDefaults(x, o.lag, o.theiler)
+	lag, lagBy, theiler, theilerFrom, cautions, err := a.embeddingDefaults(x, o.lag, o.theiler)
 	if err != nil {
-		return noAnswer(fmt.Errorf("lyapunov: %s: %w", path, err))
+		return fail(noAnswer(fmt.Errorf("lyapunov: %s: %w", path, err)))
 	}
-	dim, dimMethod := o.dim, "given"
+	if lagMethod == "" {
+		lagMethod = lagBy
+	}
+	dim := o.dim
+	if dimMethod == "" {
+		dimMethod = "given"
+	}
 	if dim == 0 {
 		c, err := embed.ChooseDimension(x, embed.DimOptions{Lag: lag, MaxDim: o.maxDim, Theiler: theiler,
 			Norm: norm, Threads: a.threads(), Progress: a.progress("false neighbours")})
 		if err != nil {
-			return noAnswer(fmt.Errorf("lyapunov: %s: choosing the dimension: %w", path, err))
+			return fail(noAnswer(fmt.Errorf("lyapunov: %s: choosing the dimension: %w", path, err)))
 		}
 		if c.Dimension == 0 {
-			return noAnswer(fmt.Errorf("lyapunov: %s: no embedding dimension up to %d qualifies (%s); give --dim", path, o.maxDim, c.Reason))
+			return fail(noAnswer(fmt.Errorf("lyapunov: %s: no embedding dimension up to %d qualifies (%s); give --dim", path, o.maxDim, c.Reason)))
 		}
 		dim, dimMethod = c.Dimension, c.Method
 		cautions = append(cautions, c.Cautions...)
@@ -226,14 +257,14 @@ func (a *app) runLyapunov(path string, o *lyapunovOptions) error {
 		if derr == nil {
 			derr = errors.New("no result")
 		}
-		return noAnswer(fmt.Errorf("lyapunov: %s: %w", path, derr))
+		return fail(noAnswer(fmt.Errorf("lyapunov: %s: %w", path, derr)))
 	}
 	var sp *lyapunov.SpectrumResult
 	if o.spectrum {
 		sp, err = lyapunov.Spectrum(x, lyapunov.SpectrumOptions{Lag: lag, Dim: dim, Theiler: theiler, Norm: norm,
 			Neighbors: o.neighbors, Evolve: o.evolve, Dt: s.Dt, Threads: a.threads(), Progress: a.progress("local maps")})
 		if err != nil {
-			return noAnswer(fmt.Errorf("lyapunov: %s: spectrum: %w", path, err))
+			return fail(noAnswer(fmt.Errorf("lyapunov: %s: spectrum: %w", path, err)))
 		}
 	}
 	res := lyapunovResult{References: r.ReferencePoints, Cautions: append(cautions, r.Cautions...)}
@@ -280,6 +311,61 @@ func (a *app) runLyapunov(path string, o *lyapunovOptions) error {
 	if res.Cautions == nil {
 		res.Cautions = []string{}
 	}
+	p := lyapunovParams{prepParams: newPrepParams(s, &o.in), Lag: lag, LagMethod: lagMethod, Dim: dim,
+		DimMethod: dimMethod, Theiler: theiler, TheilerFrom: theilerFrom, Method: method.String(),
+		Norm: norm.String(), Horizon: r.Horizon, Blocks: r.Blocks, Reps: r.Reps, Level: r.Level,
+		Seed: a.global.Seed, Threads: a.threads(), Spectrum: o.spectrum}
+	if method == lyapunov.Kantz {
+		p.Eps, p.MaxNeighbors = make([]float64, len(r.Curves)), r.MaxNeighbors
+		for e, c := range r.Curves {
+			p.Eps[e] = c.Eps
+		}
+	}
+	if o.fitTo >= 0 {
+		ff, ft := o.fitFrom, o.fitTo
+		p.FitFrom, p.FitTo = &ff, &ft
+	}
+	if sp != nil {
+		p.Neighbors, p.Evolve = sp.Neighbors, sp.Evolve
+	}
+	run := &lyapunovRun{r: r, sp: sp, method: method, lagMethod: lagMethod, dimMethod: dimMethod, theilerBy: theilerFrom}
+	var noFit error
+	if derr != nil {
+		if errors.Is(derr, fit.ErrNoRange) {
+			noFit = noAnswer(fmt.Errorf("lyapunov: %s: %w; give --fit-from and --fit-to to fit a range anyway", path, derr))
+		} else {
+			noFit = noAnswer(fmt.Errorf("lyapunov: %s: %w", path, derr))
+		}
+	}
+	return run, p, res, noFit
+}
+
+// lyapunovFigure draws the divergence curves with the fit range shaded and the fitted line.
+func lyapunovFigure(run *lyapunovRun, name string) (*plot.Plot, error) {
+	r := run.r
+	p, err := lyapunov.DivergencePlot(r, fmt.Sprintf("%s: divergence (%s, m = %d, τ = %d, Theiler %d)", name, run.method, r.Dim, r.Lag, r.Theiler))
+	if err != nil {
+		return nil, fmt.Errorf("lyapunov: figure: %w", err)
+	}
+	return p, nil
+}
+
+func (a *app) runLyapunov(path string, o *lyapunovOptions) error {
+	if err := checkFigurePath(o.plot); err != nil {
+		return err
+	}
+	if _, _, err := checkLyapunovOptions(o); err != nil {
+		return err
+	}
+	s, in, err := a.loadInput(path, &o.in)
+	if err != nil {
+		return err
+	}
+	run, p, res, fail := a.lyapunovCompute(path, s, o, "", "")
+	if run == nil {
+		return fail
+	}
+	r := run.r
 	if o.csvPath != "" {
 		header := []string{"step"}
 		cols := [][]float64{make([]float64, r.Horizon+1)}
@@ -287,7 +373,7 @@ func (a *app) runLyapunov(path string, o *lyapunovOptions) error {
 			cols[0][k] = float64(k)
 		}
 		for _, c := range r.Curves {
-			if method == lyapunov.Kantz {
+			if run.method == lyapunov.Kantz {
 				header = append(header, "mean_log_eps_"+strconv.FormatFloat(c.Eps, 'g', 6, 64))
 			} else {
 				header = append(header, "mean_log")
@@ -303,45 +389,21 @@ func (a *app) runLyapunov(path string, o *lyapunovOptions) error {
 		if path == "-" {
 			title = "standard input"
 		}
-		p, err := lyapunov.DivergencePlot(r, fmt.Sprintf("%s: divergence (%s, m = %d, τ = %d, Theiler %d)", title, method, dim, lag, theiler))
+		pl, err := lyapunovFigure(run, title)
 		if err != nil {
-			return fmt.Errorf("lyapunov: figure: %w", err)
+			return err
 		}
-		if err := writeFigureFile(o.plot, path, 8*vg.Inch, 5.5*vg.Inch, [][]*plot.Plot{{p}}); err != nil {
+		if err := writeFigureFile(o.plot, path, 8*vg.Inch, 5.5*vg.Inch, [][]*plot.Plot{{pl}}); err != nil {
 			return err
 		}
 	}
-	var fail error
-	if derr != nil {
-		if errors.Is(derr, fit.ErrNoRange) {
-			fail = noAnswer(fmt.Errorf("lyapunov: %s: %w; give --fit-from and --fit-to to fit a range anyway", path, derr))
-		} else {
-			fail = noAnswer(fmt.Errorf("lyapunov: %s: %w", path, derr))
-		}
-	}
 	if a.global.JSON {
-		p := lyapunovParams{prepParams: newPrepParams(s, &o.in), Lag: lag, LagMethod: lagMethod, Dim: dim,
-			DimMethod: dimMethod, Theiler: theiler, TheilerFrom: theilerFrom, Method: method.String(),
-			Norm: norm.String(), Horizon: r.Horizon, Blocks: r.Blocks, Reps: r.Reps, Level: r.Level,
-			Seed: a.global.Seed, Threads: a.threads(), Spectrum: o.spectrum}
-		if method == lyapunov.Kantz {
-			p.Eps, p.MaxNeighbors = make([]float64, len(r.Curves)), r.MaxNeighbors
-			for e, c := range r.Curves {
-				p.Eps[e] = c.Eps
-			}
-		}
-		if o.fitTo >= 0 {
-			p.FitFrom, p.FitTo = &o.fitFrom, &o.fitTo
-		}
-		if sp != nil {
-			p.Neighbors, p.Evolve = sp.Neighbors, sp.Evolve
-		}
 		if err := a.emitJSON("lyapunov", in, p, res); err != nil {
 			return err
 		}
 		return fail
 	}
-	return errors.Join(a.lyapunovTable(r, sp, res, lagMethod, dimMethod, theilerFrom), fail)
+	return errors.Join(a.lyapunovTable(r, run.sp, res, run.lagMethod, run.dimMethod, run.theilerBy), fail)
 }
 
 // lyapunovTable prints the human summary.

@@ -72,9 +72,10 @@ own published rule (the same as the single command of that name), and writes
                     fetched) that reads top to bottom and prints on A4 in one column;
   DIR/figures/      every figure as .svg (and .png with --png) for reuse.
 
-Stages run now: inspect (the signal and its spectrum), lag, dim and embed (the state-space
-picture). The later stages of the chain (Lyapunov exponent, correlation dimension, regime
-verdict, section/symbols, entropy) join the report as they are built. A stage that gives no
+Stages run now: inspect (the signal and its spectrum), lag, dim, embed (the state-space
+picture) and lyapunov (the divergence curve, with the defaults of 'unfold lyapunov' on the lag,
+dimension and Theiler window chosen above). The later stages of the chain (correlation
+dimension, regime verdict, section/symbols, entropy) join the report as they are built. A stage that gives no
 answer is recorded with its reason and the others still run. One line per stage goes to stderr
 with its wall time (and a bar for long stages when stderr is a terminal).
 
@@ -119,7 +120,7 @@ func addReportFlags(f *pflag.FlagSet, o *reportOptions) {
 	f.IntVar(&o.theiler, "theiler", -1, "Theiler window in samples (default: 1/e decay time of the autocorrelation)")
 	f.IntVar(&o.maxLag, "max-lag", 0, "largest lag scanned by the lag stage (default: as 'unfold lag')")
 	f.StringVar(&o.mi, "mi", embed.Histogram, "mutual-information estimator of the lag stage: hist or ksg")
-	f.StringVar(&o.norm, "norm", "euclidean", "distance of the dim stage: euclidean or max")
+	f.StringVar(&o.norm, "norm", "euclidean", "distance of the dim and lyapunov stages: euclidean or max")
 	f.Float64Var(&o.azimuth, "azimuth", -45, "rotation of the 3-D state-space view, degrees")
 	f.Float64Var(&o.elevation, "elevation", 30, "elevation of the 3-D state-space view, degrees")
 }
@@ -266,12 +267,25 @@ type chainState struct {
 	lag                  int
 	lagMethod, dimMethod string
 	dim                  int
+	// theiler is the Theiler window in samples (-1 until given or chosen by the dim stage) and
+	// theilerFrom how it was chosen ("" when not yet known).
+	theiler     int
+	theilerFrom string
+	// title names the input in the figure titles.
+	title string
+	// lambda is λ1 of the lyapunov stage (nats per time unit; nil when it gave none) and
+	// lambdaInterval its interval; the regime stage uses them as its λ1 evidence.
+	lambda         *float64
+	lambdaInterval [2]float64
 }
 
 // reportStages builds the stage list from the same functions the single commands use, so that
 // each stage's JSON is what that command prints with --json.
 func (a *app) reportStages(path string, s *series.Series, in *inputInfo, o *reportOptions) []report.Stage {
-	st := &chainState{lag: o.lag, dim: o.dim}
+	st := &chainState{lag: o.lag, dim: o.dim, theiler: o.theiler}
+	if st.theiler >= 0 {
+		st.theilerFrom = "given"
+	}
 	if st.lag > 0 {
 		st.lagMethod = "given"
 	}
@@ -282,6 +296,7 @@ func (a *app) reportStages(path string, s *series.Series, in *inputInfo, o *repo
 	if o.demo {
 		fig.Title = demo.Name
 	}
+	st.title = fig.Title
 	envelope := func(command string, params, body any) ([]byte, error) {
 		return buildJSON(command, in, params, body)
 	}
@@ -359,6 +374,9 @@ func (a *app) reportStages(path string, s *series.Series, in *inputInfo, o *repo
 			if err != nil {
 				return nil, err
 			}
+			if st.theiler < 0 {
+				st.theiler, st.theilerFrom = p.Theiler, p.TheilerFrom
+			}
 			js, err := envelope("dim", p, res)
 			if err != nil {
 				return nil, err
@@ -418,9 +436,9 @@ func (a *app) reportStages(path string, s *series.Series, in *inputInfo, o *repo
 				Caption: "The delay plot x(t+τ) against x(t) and, for m ≥ 3, an oblique view of (x(t), x(t+τ), x(t+2τ)).",
 				Width:   w, Height: h, Rows: rows}}}, nil
 		}},
+		a.lyapunovStage(path, s, o, st, envelope),
 		// ---- Stages still being built (the lead adds them here as they land, in this order, each
 		// from the same compute function as its single command; keys of DESIGN.md §3):
-		//   "lyapunov" (cmd/unfold/lyapunov.go): divergence curve with the fit range;
 		//   "fractal"  (cmd/unfold/fractal.go):  local slopes of the correlation sums;
 		//   "regime"   (cmd/unfold/regime.go):   verdict with evidence table, cautions, surrogates;
 		//   "symbols"  (cmd/unfold/section.go, symbols.go): return map and partition;

@@ -61,6 +61,13 @@ func lookup(m map[string]any, path string) any {
 	return v
 }
 
+// reportDemoStages are the stages of the report, in order (each draws one figure on the page),
+// and reportDemoFigures the names of their figure files.
+var (
+	reportDemoStages  = []string{"inspect", "lag", "dim", "embed", "lyapunov"}
+	reportDemoFigures = []string{"signal", "lag", "dim", "embed", "lyapunov"}
+)
+
 // TestReportDemoGolden is the golden test of result.json on the demo signal: the set of keys
 // and their types must equal testdata/report/demo_structure.golden, and the numbers listed in
 // testdata/report/demo_values.golden must agree within a relative 1e-6 (integers exactly).
@@ -73,7 +80,7 @@ func TestReportDemoGolden(t *testing.T) {
 	if code != 0 {
 		t.Fatalf("exit %d: %s", code, stderr)
 	}
-	for _, st := range []string{"inspect", "lag", "dim", "embed"} {
+	for _, st := range reportDemoStages {
 		if !strings.Contains(stderr, "  "+st+" ") {
 			t.Errorf("no progress line for stage %s in:\n%s", st, stderr)
 		}
@@ -92,7 +99,8 @@ func TestReportDemoGolden(t *testing.T) {
 	sort.Strings(lines)
 	got := strings.Join(lines, "\n") + "\n"
 	paths := []string{"input.samples", "input.dt", "inspect.mean", "inspect.std", "inspect.dominant_period",
-		"lag.lag", "lag.lag_time", "lag.theiler", "dim.dimension", "dim.lag", "dim.theiler", "embed.vectors", "embed.dimension"}
+		"lag.lag", "lag.lag_time", "lag.theiler", "dim.dimension", "dim.lag", "dim.theiler", "embed.vectors", "embed.dimension",
+		"lyapunov.lambda_max", "lyapunov.fit.from", "lyapunov.fit.to", "lyapunov.parameters.lag", "lyapunov.parameters.dim", "lyapunov.parameters.theiler"}
 	var vals bytes.Buffer
 	for _, p := range paths {
 		v, ok := lookup(m, p).(float64)
@@ -128,10 +136,10 @@ func TestReportDemoGolden(t *testing.T) {
 	}
 	// provenance and stage objects (DESIGN.md §3: every stage object is a full command object)
 	pv := m["provenance"].(map[string]any)
-	if pv["input_sha256"] != lookup(m, "input.sha256") || len(pv["stages"].([]any)) != 4 || m["status"] != "ok" {
+	if pv["input_sha256"] != lookup(m, "input.sha256") || len(pv["stages"].([]any)) != len(reportDemoStages) || m["status"] != "ok" {
 		t.Errorf("provenance %v, status %v", pv, m["status"])
 	}
-	for _, k := range []string{"inspect", "lag", "dim", "embed"} {
+	for _, k := range reportDemoStages {
 		if lookup(m, k+".command") != k || lookup(m, k+".input.sha256") != lookup(m, "input.sha256") {
 			t.Errorf("%s: command %v, input %v", k, lookup(m, k+".command"), lookup(m, k+".input"))
 		}
@@ -140,8 +148,9 @@ func TestReportDemoGolden(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	checkReportPage(t, page, 4)
-	for _, f := range []string{"signal", "lag", "dim", "embed"} {
+	// one figure per stage that ran
+	checkReportPage(t, page, len(reportDemoStages))
+	for _, f := range reportDemoFigures {
 		if _, err := os.Stat(filepath.Join(dir, "figures", f+".svg")); err != nil {
 			t.Error(err)
 		}
@@ -203,8 +212,8 @@ func checkReportPage(t *testing.T, page []byte, figures int) {
 	}
 }
 
-// TestReportSameJSONAsCommands: the report's lag and dim objects are exactly what `unfold lag
-// --json` and `unfold dim --json` print for the same file; a file name holding <script>
+// TestReportSameJSONAsCommands: the report's lag, dim and lyapunov objects are exactly what
+// `unfold lag --json`, `unfold dim --json` and `unfold lyapunov --json` print for the same file; a file name holding <script>
 // appears escaped on the page.
 func TestReportSameJSONAsCommands(t *testing.T) {
 	dir := t.TempDir()
@@ -224,7 +233,7 @@ func TestReportSameJSONAsCommands(t *testing.T) {
 		t.Fatal(err)
 	}
 	m := decode(t, string(b))
-	for _, c := range []string{"lag", "dim"} {
+	for _, c := range []string{"lag", "dim", "lyapunov"} {
 		so, se, code := runCLI(t, "", c, "--json", "-q", "--threads", "2", evil)
 		if code != 0 {
 			t.Fatalf("%s: exit %d: %s", c, code, se)
