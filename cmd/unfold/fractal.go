@@ -9,6 +9,7 @@ import (
 	"strings"
 
 	"github.com/spf13/cobra"
+	"github.com/spf13/pflag"
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/vg"
@@ -57,7 +58,12 @@ use the maximum norm unless --euclidean. Radii are in signal units.`,
 		},
 	}
 	addInputFlags(cmd, &o.in)
-	f := cmd.Flags()
+	addFractalFlags(cmd.Flags(), o)
+	return cmd
+}
+
+// addFractalFlags binds the flags of `fractal` (besides the input flags) to o, with their defaults.
+func addFractalFlags(f *pflag.FlagSet, o *fractalOptions) {
 	f.IntVar(&o.lag, "lag", 0, "delay in samples (default: chosen from the mutual information)")
 	f.IntVar(&o.dim, "dim", 0, "compute only up to this dimension (same as --max-dim; kept for symmetry with other commands)")
 	f.IntVar(&o.maxDim, "max-dim", 8, "largest embedding dimension")
@@ -66,7 +72,6 @@ use the maximum norm unless --euclidean. Radii are in signal units.`,
 	f.BoolVar(&o.euclidean, "euclidean", false, "use the Euclidean norm instead of the maximum norm")
 	f.StringVar(&o.csv, "csv", "", "write the correlation sums (dimension, r, c, pairs, local_slope) to this CSV file")
 	f.StringVar(&o.plot, "plot", "", "draw the local slopes d log C / d log r against r for every m (.png or .svg)")
-	return cmd
 }
 
 // parseRadii reads "a,b,c" or "lo:hi:count".
@@ -138,75 +143,66 @@ type fractalResult struct {
 	Cautions       []string     `json:"cautions"`
 }
 
-func (a *app) runFractal(path string, o *fractalOptions) error {
-	if err := checkFigurePath(o.plot); err != nil {
-		return err
-	}
-	if o.dim > 0 {
-		o.maxDim = o.dim
-	}
+// fractalRun is what fractalCompute found, for the renderers (table, CSV, figure).
+type fractalRun struct {
+	r                    *dimension.Result
+	lag, theiler         int
+	lagMethod, theilerBy string
+	cautions             []string
+}
+
+// checkFractalOptions validates the flags of `fractal` (after --dim has been folded into
+// --max-dim) and parses the radii.
+func checkFractalOptions(o *fractalOptions) ([]float64, error) {
 	if o.lag < 0 || o.maxDim < 1 || o.maxDim > 30 {
-		return usagef("fractal: want --lag ≥ 0 and 1 ≤ --max-dim ≤ 30")
+		return nil, usagef("fractal: want --lag ≥ 0 and 1 ≤ --max-dim ≤ 30")
 	}
-	radii, err := parseRadii(o.radii)
-	if err != nil {
-		return err
+	return parseRadii(o.radii)
+}
+
+// fractalCompute computes the correlation sums of s and D2 (choosing what o does not give) and
+// returns what the renderers need with the JSON parameters and body of `fractal`; the command
+// and the report both use it. lagMethod and theilerBy name the rules that chose o.lag and
+// o.theiler when a caller chose them already (the report's earlier stages); "" means given or
+// chosen here. When the curves have no scaling range the run is returned (its curves can be
+// drawn) with a no-answer error, and the body is empty.
+func (a *app) fractalCompute(path string, s *series.Series, o *fractalOptions, lagMethod, theilerBy string) (*fractalRun, fractalParams, fractalResult, error) {
+	fail := func(run *fractalRun, err error) (*fractalRun, fractalParams, fractalResult, error) {
+		return run, fractalParams{}, fractalResult{}, err
 	}
-	s, in, err := a.loadInput(path, &o.in)
+	radii, err := checkFractalOptions(o)
 	if err != nil {
-		return err
+		return fail(nil, err)
 	}
 	if err := series.CheckVariable(s.Values); err != nil {
-		return err
+		return fail(nil, err)
 	}
 	x := s.Values
-	lag, lagMethod, theiler, theilerFrom, cautions, err := a.embeddingDefaults(x, o.lag, o.theiler)
+	lag, lagBy, theiler, theilerFrom, cautions, err := a.embeddingDefaults(x, o.lag, o.theiler)
 	if err != nil {
-		return noAnswer(fmt.Errorf("fractal: %s: %w", path, err))
+		return fail(nil, noAnswer(fmt.Errorf("fractal: %s: %w", path, err)))
+	}
+	if lagMethod == "" {
+		lagMethod = lagBy
 	}
 	if theilerFrom != "given" {
 		a.notef("Theiler window %d samples (%s)", theiler, theilerFrom)
 	}
+	if theilerBy != "" {
+		theilerFrom = theilerBy
+	}
 	r, derr := dimension.CorrelationDimension(x, dimension.Options{Lag: lag, MaxDim: o.maxDim, Theiler: theiler,
 		Radii: radii, Euclidean: o.euclidean, Seed: a.global.Seed, Threads: a.threads(), Progress: a.progress("pair counts")})
 	if r == nil {
-		return noAnswer(fmt.Errorf("fractal: %s: %w", path, derr))
-	}
-	if o.csv != "" {
-		var dims, rs, cs, ps, sl []float64
-		for _, c := range r.Curves {
-			for k, rad := range r.Radii {
-				dims = append(dims, float64(c.Dim))
-				rs = append(rs, rad)
-				cs = append(cs, c.C[k])
-				ps = append(ps, float64(c.Pairs[k]))
-				sl = append(sl, c.Slopes[k])
-			}
-		}
-		if err := writeCSVFile(o.csv, path, []string{"dimension", "r", "c", "pairs", "local_slope"}, dims, rs, cs, ps, sl); err != nil {
-			return err
-		}
-	}
-	if o.plot != "" {
-		p, err := slopePlot(r, fmt.Sprintf("%s: local slopes (τ = %d, Theiler %d, %s norm)", figureName(path), lag, theiler, r.Norm))
-		if err != nil {
-			return err
-		}
-		if err := writeFigureFile(o.plot, path, 8*vg.Inch, 5.5*vg.Inch, [][]*plot.Plot{{p}}); err != nil {
-			return err
-		}
+		return fail(nil, noAnswer(fmt.Errorf("fractal: %s: %w", path, derr)))
 	}
 	cautions = append(cautions, r.Cautions...)
 	if cautions == nil {
 		cautions = []string{}
 	}
+	run := &fractalRun{r: r, lag: lag, theiler: theiler, lagMethod: lagMethod, theilerBy: theilerFrom, cautions: cautions}
 	if derr != nil {
-		if errors.Is(derr, dimension.ErrNoScaling) {
-			for _, c := range cautions {
-				a.notef("caution: %s", c)
-			}
-		}
-		return noAnswer(fmt.Errorf("fractal: %s: %w", path, derr))
+		return fail(run, noAnswer(fmt.Errorf("fractal: %s: %w", path, derr)))
 	}
 	res := fractalResult{D2: r.D2, Interval: [2]float64{r.Lo, r.Hi}, ScalingRange: [2]float64{r.RLo, r.RHi},
 		Saturated: r.Saturated, Dimension: r.Dim, Takens: finitePtr(r.Takens), Cautions: cautions, CorrelationSum: []csumPoint{}}
@@ -224,9 +220,68 @@ func (a *app) runFractal(path string, o *fractalOptions) error {
 			res.CorrelationSum = append(res.CorrelationSum, csumPoint{c.Dim, rad, c.C[k]})
 		}
 	}
+	p := fractalParams{Column: s.Name, Lag: lag, LagMethod: lagMethod, MaxDim: r.MaxDim, Theiler: theiler,
+		TheilerBy: theilerFrom, Norm: r.Norm, Radii: len(r.Radii), Seed: a.global.Seed}
+	return run, p, res, nil
+}
+
+// fractalFigure draws the local slopes of the correlation sums of run.
+func fractalFigure(run *fractalRun, name string) (*plot.Plot, error) {
+	return slopePlot(run.r, fmt.Sprintf("%s: local slopes (τ = %d, Theiler %d, %s norm)", name, run.lag, run.theiler, run.r.Norm))
+}
+
+func (a *app) runFractal(path string, o *fractalOptions) error {
+	if err := checkFigurePath(o.plot); err != nil {
+		return err
+	}
+	if o.dim > 0 {
+		o.maxDim = o.dim
+	}
+	if _, err := checkFractalOptions(o); err != nil {
+		return err
+	}
+	s, in, err := a.loadInput(path, &o.in)
+	if err != nil {
+		return err
+	}
+	run, p, res, derr := a.fractalCompute(path, s, o, "", "")
+	if run == nil {
+		return derr
+	}
+	r, lag, theiler, lagMethod, theilerFrom, cautions := run.r, run.lag, run.theiler, run.lagMethod, run.theilerBy, run.cautions
+	if o.csv != "" {
+		var dims, rs, cs, ps, sl []float64
+		for _, c := range r.Curves {
+			for k, rad := range r.Radii {
+				dims = append(dims, float64(c.Dim))
+				rs = append(rs, rad)
+				cs = append(cs, c.C[k])
+				ps = append(ps, float64(c.Pairs[k]))
+				sl = append(sl, c.Slopes[k])
+			}
+		}
+		if err := writeCSVFile(o.csv, path, []string{"dimension", "r", "c", "pairs", "local_slope"}, dims, rs, cs, ps, sl); err != nil {
+			return err
+		}
+	}
+	if o.plot != "" {
+		pl, err := fractalFigure(run, figureName(path))
+		if err != nil {
+			return err
+		}
+		if err := writeFigureFile(o.plot, path, 8*vg.Inch, 5.5*vg.Inch, [][]*plot.Plot{{pl}}); err != nil {
+			return err
+		}
+	}
+	if derr != nil {
+		if errors.Is(derr, dimension.ErrNoScaling) {
+			for _, c := range cautions {
+				a.notef("caution: %s", c)
+			}
+		}
+		return derr
+	}
 	if a.global.JSON {
-		p := fractalParams{Column: s.Name, Lag: lag, LagMethod: lagMethod, MaxDim: r.MaxDim, Theiler: theiler,
-			TheilerBy: theilerFrom, Norm: r.Norm, Radii: len(r.Radii), Seed: a.global.Seed}
 		return a.emitJSON("fractal", in, p, res)
 	}
 	g := func(v float64) string { return strconv.FormatFloat(v, 'g', 4, 64) }

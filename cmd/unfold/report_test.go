@@ -64,8 +64,8 @@ func lookup(m map[string]any, path string) any {
 // reportDemoStages are the stages of the report, in order (each draws one figure on the page),
 // and reportDemoFigures the names of their figure files.
 var (
-	reportDemoStages  = []string{"inspect", "lag", "dim", "embed", "lyapunov"}
-	reportDemoFigures = []string{"signal", "lag", "dim", "embed", "lyapunov"}
+	reportDemoStages  = []string{"inspect", "lag", "dim", "embed", "lyapunov", "fractal"}
+	reportDemoFigures = []string{"signal", "lag", "dim", "embed", "lyapunov", "fractal"}
 )
 
 // TestReportDemoGolden is the golden test of result.json on the demo signal: the set of keys
@@ -100,7 +100,8 @@ func TestReportDemoGolden(t *testing.T) {
 	got := strings.Join(lines, "\n") + "\n"
 	paths := []string{"input.samples", "input.dt", "inspect.mean", "inspect.std", "inspect.dominant_period",
 		"lag.lag", "lag.lag_time", "lag.theiler", "dim.dimension", "dim.lag", "dim.theiler", "embed.vectors", "embed.dimension",
-		"lyapunov.lambda_max", "lyapunov.fit.from", "lyapunov.fit.to", "lyapunov.parameters.lag", "lyapunov.parameters.dim", "lyapunov.parameters.theiler"}
+		"lyapunov.lambda_max", "lyapunov.fit.from", "lyapunov.fit.to", "lyapunov.parameters.lag", "lyapunov.parameters.dim", "lyapunov.parameters.theiler",
+		"fractal.d2", "fractal.dimension", "fractal.parameters.lag", "fractal.parameters.theiler", "fractal.parameters.max_dim"}
 	var vals bytes.Buffer
 	for _, p := range paths {
 		v, ok := lookup(m, p).(float64)
@@ -212,8 +213,8 @@ func checkReportPage(t *testing.T, page []byte, figures int) {
 	}
 }
 
-// TestReportSameJSONAsCommands: the report's lag, dim and lyapunov objects are exactly what
-// `unfold lag --json`, `unfold dim --json` and `unfold lyapunov --json` print for the same file; a file name holding <script>
+// TestReportSameJSONAsCommands: the report's lag, dim, lyapunov and fractal objects are exactly
+// what `unfold lag --json`, `unfold dim --json`, … print for the same file; a file name holding <script>
 // appears escaped on the page.
 func TestReportSameJSONAsCommands(t *testing.T) {
 	dir := t.TempDir()
@@ -233,7 +234,7 @@ func TestReportSameJSONAsCommands(t *testing.T) {
 		t.Fatal(err)
 	}
 	m := decode(t, string(b))
-	for _, c := range []string{"lag", "dim", "lyapunov"} {
+	for _, c := range []string{"lag", "dim", "lyapunov", "fractal"} {
 		so, se, code := runCLI(t, "", c, "--json", "-q", "--threads", "2", evil)
 		if code != 0 {
 			t.Fatalf("%s: exit %d: %s", c, code, se)
