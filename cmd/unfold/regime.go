@@ -7,6 +7,7 @@ import (
 	"strconv"
 
 	"github.com/spf13/cobra"
+	"github.com/spf13/pflag"
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/vg"
@@ -74,14 +75,18 @@ samples after subsampling).`,
 		},
 	}
 	addInputFlags(cmd, &o.in)
-	f := cmd.Flags()
+	addRegimeFlags(cmd.Flags(), o)
+	return cmd
+}
+
+// addRegimeFlags binds the flags of `regime` (besides the input flags) to o, with their defaults.
+func addRegimeFlags(f *pflag.FlagSet, o *regimeOptions) {
 	f.IntVar(&o.lag, "lag", 0, "delay in samples (default: chosen from the mutual information)")
 	f.IntVar(&o.dim, "dim", 0, "embedding dimension (default: chosen by false neighbours and Cao's E1)")
 	f.IntVar(&o.theiler, "theiler", 0, "Theiler window in samples (default: 1/e decay time of the autocorrelation)")
 	f.IntVar(&o.surrogates, "surrogates", 19, "number of IAAFT surrogates (19: one-sided 5 %; 39: two-sided 5 %)")
 	f.BoolVar(&o.noLyap, "no-lyapunov", false, "leave the Lyapunov exponent out of the evidence")
 	f.StringVar(&o.plot, "plot", "", "draw the evidence: the spectrum with its lines and the surrogate distributions (.png or .svg)")
-	return cmd
 }
 
 type regimeParams struct {
@@ -94,6 +99,8 @@ type regimeParams struct {
 	Surrogates int    `json:"surrogates"`
 	Subsample  int    `json:"zero_one_subsample"`
 	Seed       uint64 `json:"seed"`
+	// LyapunovFrom is set in the report when λ1 is the lyapunov stage's (not estimated here).
+	LyapunovFrom string `json:"lyapunov_from,omitempty"`
 }
 
 type regimeResult struct {
@@ -105,25 +112,85 @@ type regimeResult struct {
 	Cautions   []string               `json:"cautions"`
 }
 
+// checkRegimeOptions validates the flags of `regime`.
+func checkRegimeOptions(o *regimeOptions) error {
+	if o.lag < 0 || o.dim < 0 || o.theiler < 0 || o.surrogates < 1 {
+		return usagef("regime: want --lag, --dim, --theiler ≥ 0 and --surrogates ≥ 1")
+	}
+	return nil
+}
+
+// regimeCompute gathers the evidence of s and decides the regime (choosing what o does not
+// give), and returns the analysis (for the renderers) with the JSON parameters and body of
+// `regime`; the command and the report both use it. lagMethod and dimMethod name the rules that
+// chose o.lag and o.dim when a caller chose them already (the report's earlier stages); ""
+// means given or chosen here. lyap, when not nil, is λ1 with its interval estimated by the
+// caller (the report's lyapunov stage), used instead of Analyze's own estimate and recorded
+// as "lyapunov_from": "lyapunov stage" in the parameters.
+func (a *app) regimeCompute(path string, s *series.Series, o *regimeOptions, lagMethod, dimMethod string, lyap *regime.Exponent) (*regime.Analysis, regimeParams, regimeResult, error) {
+	if err := checkRegimeOptions(o); err != nil {
+		return nil, regimeParams{}, regimeResult{}, err
+	}
+	if err := series.CheckVariable(s.Values); err != nil {
+		return nil, regimeParams{}, regimeResult{}, err
+	}
+	an, err := regime.Analyze(s.Values, s.Dt, regime.Options{Lag: o.lag, Dim: o.dim, Theiler: o.theiler,
+		Surrogates: o.surrogates, Seed: a.global.Seed, Lyapunov: lyap, NoLyapunov: o.noLyap, Threads: a.threads(),
+		Progress: a.progress("surrogate tests")})
+	if err != nil {
+		return nil, regimeParams{}, regimeResult{}, noAnswer(fmt.Errorf("regime: %s: %w", path, err))
+	}
+	ev, v := an.Evidence, an.Verdict
+	if lagMethod == "" {
+		lagMethod = an.LagMethod
+	}
+	if dimMethod == "" {
+		dimMethod = an.DimMethod
+	}
+	sub := 0
+	if ev.ZeroOne != nil {
+		sub = ev.ZeroOne.Subsample
+	}
+	p := regimeParams{Column: s.Name, Lag: ev.Lag, LagMethod: lagMethod, Dim: ev.Dim, DimMethod: dimMethod,
+		Theiler: ev.Theiler, Surrogates: o.surrogates, Subsample: sub, Seed: a.global.Seed}
+	if lyap != nil && !o.noLyap {
+		p.LyapunovFrom = "lyapunov stage"
+	}
+	res := regimeResult{Regime: v.Regime, Confidence: v.Confidence, Rule: v.Rule,
+		Evidence: v.Evidence, Tests: []*regime.RankTest{ev.Prediction, ev.Reversal}, Cautions: v.Cautions}
+	return an, p, res, nil
+}
+
+// evidenceRows are the rows of the evidence table: the item's name, then "points to (weight):
+// detail", sorted by name.
+func evidenceRows(v *regime.Verdict) [][2]string {
+	keys := make([]string, 0, len(v.Evidence))
+	for k := range v.Evidence {
+		keys = append(keys, k)
+	}
+	slices.Sort(keys)
+	rows := make([][2]string, 0, len(keys))
+	for _, k := range keys {
+		it := v.Evidence[k]
+		rows = append(rows, [2]string{k, fmt.Sprintf("%s (%g): %s", it.PointsTo, it.Weight, it.Detail)})
+	}
+	return rows
+}
+
 func (a *app) runRegime(path string, o *regimeOptions) error {
 	if err := checkFigurePath(o.plot); err != nil {
 		return err
 	}
-	if o.lag < 0 || o.dim < 0 || o.theiler < 0 || o.surrogates < 1 {
-		return usagef("regime: want --lag, --dim, --theiler ≥ 0 and --surrogates ≥ 1")
+	if err := checkRegimeOptions(o); err != nil {
+		return err
 	}
 	s, in, err := a.loadInput(path, &o.in)
 	if err != nil {
 		return err
 	}
-	if err := series.CheckVariable(s.Values); err != nil {
-		return err
-	}
-	an, err := regime.Analyze(s.Values, s.Dt, regime.Options{Lag: o.lag, Dim: o.dim, Theiler: o.theiler,
-		Surrogates: o.surrogates, Seed: a.global.Seed, NoLyapunov: o.noLyap, Threads: a.threads(),
-		Progress: a.progress("surrogate tests")})
+	an, p, res, err := a.regimeCompute(path, s, o, "", "", nil)
 	if err != nil {
-		return noAnswer(fmt.Errorf("regime: %s: %w", path, err))
+		return err
 	}
 	ev, v := an.Evidence, an.Verdict
 	if an.LagMethod != "given" {
@@ -144,15 +211,8 @@ func (a *app) runRegime(path string, o *regimeOptions) error {
 			return err
 		}
 	}
-	sub := 0
-	if ev.ZeroOne != nil {
-		sub = ev.ZeroOne.Subsample
-	}
 	if a.global.JSON {
-		p := regimeParams{Column: s.Name, Lag: ev.Lag, LagMethod: an.LagMethod, Dim: ev.Dim, DimMethod: an.DimMethod,
-			Theiler: ev.Theiler, Surrogates: o.surrogates, Subsample: sub, Seed: a.global.Seed}
-		return a.emitJSON("regime", in, p, regimeResult{Regime: v.Regime, Confidence: v.Confidence, Rule: v.Rule,
-			Evidence: v.Evidence, Tests: []*regime.RankTest{ev.Prediction, ev.Reversal}, Cautions: v.Cautions})
+		return a.emitJSON("regime", in, p, res)
 	}
 	rows := [][]string{
 		{"file", path},
@@ -163,14 +223,8 @@ func (a *app) runRegime(path string, o *regimeOptions) error {
 		{"", ""},
 		{"evidence", "points to (weight): detail"},
 	}
-	keys := make([]string, 0, len(v.Evidence))
-	for k := range v.Evidence {
-		keys = append(keys, k)
-	}
-	slices.Sort(keys)
-	for _, k := range keys {
-		it := v.Evidence[k]
-		rows = append(rows, []string{"  " + k, fmt.Sprintf("%s (%g): %s", it.PointsTo, it.Weight, it.Detail)})
+	for _, r := range evidenceRows(v) {
+		rows = append(rows, []string{"  " + r[0], r[1]})
 	}
 	if err := a.table(rows); err != nil {
 		return err

@@ -75,8 +75,10 @@ own published rule (the same as the single command of that name), and writes
 Stages run now: inspect (the signal and its spectrum), lag, dim, embed (the state-space
 picture) and lyapunov (the divergence curve, with the defaults of 'unfold lyapunov' on the lag,
 dimension and Theiler window chosen above), fractal (the local slopes of the correlation sums,
-with the defaults of 'unfold fractal' on that lag and Theiler window). The later stages of the
-chain (regime verdict, section/symbols, entropy) join the report as they are built. A stage that gives no
+with the defaults of 'unfold fractal' on that lag and Theiler window) and regime (the verdict
+with its evidence and cautions, with the defaults of 'unfold regime' — 19 IAAFT surrogates — on
+that embedding and the lyapunov stage's exponent). The later stages of the chain
+(section/symbols, entropy) join the report as they are built. A stage that gives no
 answer is recorded with its reason and the others still run. One line per stage goes to stderr
 with its wall time (and a bar for long stages when stderr is a terminal).
 
@@ -439,9 +441,9 @@ func (a *app) reportStages(path string, s *series.Series, in *inputInfo, o *repo
 		}},
 		a.lyapunovStage(path, s, o, st, envelope),
 		a.fractalStage(path, s, o, st, envelope),
+		a.regimeStage(path, s, o, st, envelope),
 		// ---- Stages still being built (the lead adds them here as they land, in this order, each
 		// from the same compute function as its single command; keys of DESIGN.md §3):
-		//   "regime"   (cmd/unfold/regime.go):   verdict with evidence table, cautions, surrogates;
 		//   "symbols"  (cmd/unfold/section.go, symbols.go): return map and partition;
 		//   "entropy"  (cmd/unfold/entropy.go):  block-entropy curves.
 		// summary.csv already reads lambda_max, d2, regime and confidence from those keys.

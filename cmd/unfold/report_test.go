@@ -64,8 +64,8 @@ func lookup(m map[string]any, path string) any {
 // reportDemoStages are the stages of the report, in order (each draws one figure on the page),
 // and reportDemoFigures the names of their figure files.
 var (
-	reportDemoStages  = []string{"inspect", "lag", "dim", "embed", "lyapunov", "fractal"}
-	reportDemoFigures = []string{"signal", "lag", "dim", "embed", "lyapunov", "fractal"}
+	reportDemoStages  = []string{"inspect", "lag", "dim", "embed", "lyapunov", "fractal", "regime"}
+	reportDemoFigures = []string{"signal", "lag", "dim", "embed", "lyapunov", "fractal", "regime"}
 )
 
 // TestReportDemoGolden is the golden test of result.json on the demo signal: the set of keys
@@ -101,7 +101,8 @@ func TestReportDemoGolden(t *testing.T) {
 	paths := []string{"input.samples", "input.dt", "inspect.mean", "inspect.std", "inspect.dominant_period",
 		"lag.lag", "lag.lag_time", "lag.theiler", "dim.dimension", "dim.lag", "dim.theiler", "embed.vectors", "embed.dimension",
 		"lyapunov.lambda_max", "lyapunov.fit.from", "lyapunov.fit.to", "lyapunov.parameters.lag", "lyapunov.parameters.dim", "lyapunov.parameters.theiler",
-		"fractal.d2", "fractal.dimension", "fractal.parameters.lag", "fractal.parameters.theiler", "fractal.parameters.max_dim"}
+		"fractal.d2", "fractal.dimension", "fractal.parameters.lag", "fractal.parameters.theiler", "fractal.parameters.max_dim",
+		"regime.confidence", "regime.parameters.lag", "regime.parameters.dim", "regime.parameters.theiler", "regime.parameters.surrogates"}
 	var vals bytes.Buffer
 	for _, p := range paths {
 		v, ok := lookup(m, p).(float64)
@@ -214,7 +215,8 @@ func checkReportPage(t *testing.T, page []byte, figures int) {
 }
 
 // TestReportSameJSONAsCommands: the report's lag, dim, lyapunov and fractal objects are exactly
-// what `unfold lag --json`, `unfold dim --json`, … print for the same file; a file name holding <script>
+// what `unfold lag --json`, `unfold dim --json`, … print for the same file, and its regime
+// object what `unfold regime --json` prints on the same embedding; a file name holding <script>
 // appears escaped on the page.
 func TestReportSameJSONAsCommands(t *testing.T) {
 	dir := t.TempDir()
@@ -242,6 +244,27 @@ func TestReportSameJSONAsCommands(t *testing.T) {
 		if want := decode(t, so); !reflect.DeepEqual(m[c], want) {
 			t.Errorf("report's %q object differs from `unfold %s --json`", c, c)
 		}
+	}
+	// regime on the embedding the report chose, with λ1 from its lyapunov stage: the same
+	// object as `unfold regime --json --lag L --dim M --theiler W` but for the parameters
+	// naming how the embedding and λ1 were chosen (λ1 of the record's first 20 000 samples
+	// with the lyapunov defaults is what regime estimates itself; this record is shorter)
+	rp, _ := lookup(m, "regime.parameters").(map[string]any)
+	if rp == nil || rp["lyapunov_from"] != "lyapunov stage" {
+		t.Fatalf("regime parameters %v: want lyapunov_from = lyapunov stage", rp)
+	}
+	so, se, code := runCLI(t, "", "regime", "--json", "-q", "--threads", "2", "--lag", fmt.Sprint(rp["lag"]),
+		"--dim", fmt.Sprint(rp["dim"]), "--theiler", fmt.Sprint(rp["theiler"]), evil)
+	if code != 0 {
+		t.Fatalf("regime: exit %d: %s", code, se)
+	}
+	want := decode(t, so)
+	for _, k := range []string{"lag_method", "dim_method", "lyapunov_from"} {
+		delete(rp, k)
+		delete(want["parameters"].(map[string]any), k)
+	}
+	if !reflect.DeepEqual(m["regime"], want) {
+		t.Errorf("report's regime object differs from `unfold regime --json` with its embedding")
 	}
 	page, err := os.ReadFile(filepath.Join(out, "report.html"))
 	if err != nil {
