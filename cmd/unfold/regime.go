@@ -278,6 +278,7 @@ func evidencePlots(an *regime.Analysis, name string) ([][]*plot.Plot, error) {
 			p.Add(sc)
 			p.Legend.Add("significant lines", sc)
 		}
+		p.Legend.Top = true // the spectrum falls to the right: keep the legend off the noise floor
 		row = append(row, p)
 	}
 	for _, t := range []*regime.RankTest{ev.Prediction, ev.Reversal} {
@@ -307,6 +308,8 @@ func evidencePlots(an *regime.Analysis, name string) ([][]*plot.Plot, error) {
 		p.Add(d)
 		p.Legend.Add("data", d)
 		p.Legend.Top = true
+		// head room above the surrogates so the legend covers no point
+		p.Y.Min, p.Y.Max = 0, float64(len(t.Surrogates))*1.3+2
 		row = append(row, p)
 	}
 	return [][]*plot.Plot{row}, nil
