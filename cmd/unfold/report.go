@@ -77,8 +77,10 @@ picture) and lyapunov (the divergence curve, with the defaults of 'unfold lyapun
 dimension and Theiler window chosen above), fractal (the local slopes of the correlation sums,
 with the defaults of 'unfold fractal' on that lag and Theiler window) and regime (the verdict
 with its evidence and cautions, with the defaults of 'unfold regime' — 19 IAAFT surrogates — on
-that embedding and the lyapunov stage's exponent). The later stages of the chain
-(section/symbols, entropy) join the report as they are built. A stage that gives no
+that embedding and the lyapunov stage's exponent), symbols (the defaults of 'unfold symbols' on
+the lag chosen above: the return map with the partition's cut(s); the stream and its sidecar are
+kept in memory, not written, so "output" and "sidecar" are empty) and entropy (the defaults of
+'unfold entropy' on that stream: the block-entropy and entropy-rate curves). A stage that gives no
 answer is recorded with its reason and the others still run. One line per stage goes to stderr
 with its wall time (and a bar for long stages when stderr is a terminal).
 
@@ -303,6 +305,7 @@ func (a *app) reportStages(path string, s *series.Series, in *inputInfo, o *repo
 	envelope := func(command string, params, body any) ([]byte, error) {
 		return buildJSON(command, in, params, body)
 	}
+	sym := &symbolStream{} // the symbols stage's stream, read by the entropy stage
 	stages := []report.Stage{
 		{Key: "inspect", Title: "The signal", Run: func() (*report.Section, error) {
 			io := &inspectOptions{in: o.in}
@@ -442,11 +445,11 @@ func (a *app) reportStages(path string, s *series.Series, in *inputInfo, o *repo
 		a.lyapunovStage(path, s, o, st, envelope),
 		a.fractalStage(path, s, o, st, envelope),
 		a.regimeStage(path, s, o, st, envelope),
-		// ---- Stages still being built (the lead adds them here as they land, in this order, each
-		// from the same compute function as its single command; keys of DESIGN.md §3):
-		//   "symbols"  (cmd/unfold/section.go, symbols.go): return map and partition;
-		//   "entropy"  (cmd/unfold/entropy.go):  block-entropy curves.
-		// summary.csv already reads lambda_max, d2, regime and confidence from those keys.
+		// Every stage of the chain (issue 8) is in; each is built from the same compute function
+		// as its single command, under the keys of DESIGN.md §3. summary.csv reads lambda_max,
+		// d2, regime and confidence from those keys.
+		a.symbolsStage(path, s, in, o, st, sym, envelope),
+		a.entropyStage(sym),
 	}
 	return stages
 }

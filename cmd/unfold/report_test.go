@@ -64,8 +64,8 @@ func lookup(m map[string]any, path string) any {
 // reportDemoStages are the stages of the report, in order (each draws one figure on the page),
 // and reportDemoFigures the names of their figure files.
 var (
-	reportDemoStages  = []string{"inspect", "lag", "dim", "embed", "lyapunov", "fractal", "regime"}
-	reportDemoFigures = []string{"signal", "lag", "dim", "embed", "lyapunov", "fractal", "regime"}
+	reportDemoStages  = []string{"inspect", "lag", "dim", "embed", "lyapunov", "fractal", "regime", "symbols", "entropy"}
+	reportDemoFigures = []string{"signal", "lag", "dim", "embed", "lyapunov", "fractal", "regime", "symbols", "entropy"}
 )
 
 // TestReportDemoGolden is the golden test of result.json on the demo signal: the set of keys
@@ -102,7 +102,9 @@ func TestReportDemoGolden(t *testing.T) {
 		"lag.lag", "lag.lag_time", "lag.theiler", "dim.dimension", "dim.lag", "dim.theiler", "embed.vectors", "embed.dimension",
 		"lyapunov.lambda_max", "lyapunov.fit.from", "lyapunov.fit.to", "lyapunov.parameters.lag", "lyapunov.parameters.dim", "lyapunov.parameters.theiler",
 		"fractal.d2", "fractal.dimension", "fractal.parameters.lag", "fractal.parameters.theiler", "fractal.parameters.max_dim",
-		"regime.confidence", "regime.parameters.lag", "regime.parameters.dim", "regime.parameters.theiler", "regime.parameters.surrogates"}
+		"regime.confidence", "regime.parameters.lag", "regime.parameters.dim", "regime.parameters.theiler", "regime.parameters.surrogates",
+		"symbols.count", "symbols.alphabet_size", "symbols.partition.score", "symbols.parameters.section.lag", "symbols.parameters.section.level",
+		"entropy.entropy_rate", "entropy.excess_entropy", "entropy.lz76", "entropy.input.samples", "entropy.parameters.rate_length"}
 	var vals bytes.Buffer
 	for _, p := range paths {
 		v, ok := lookup(m, p).(float64)
@@ -142,7 +144,11 @@ func TestReportDemoGolden(t *testing.T) {
 		t.Errorf("provenance %v, status %v", pv, m["status"])
 	}
 	for _, k := range reportDemoStages {
-		if lookup(m, k+".command") != k || lookup(m, k+".input.sha256") != lookup(m, "input.sha256") {
+		sha := lookup(m, k+".input.sha256")
+		if k == "entropy" { // its input is the symbol stream; its source is the report's input
+			sha = lookup(m, "entropy.source.sha256")
+		}
+		if lookup(m, k+".command") != k || sha != lookup(m, "input.sha256") {
 			t.Errorf("%s: command %v, input %v", k, lookup(m, k+".command"), lookup(m, k+".input"))
 		}
 	}
@@ -152,6 +158,7 @@ func TestReportDemoGolden(t *testing.T) {
 	}
 	// one figure per stage that ran
 	checkReportPage(t, page, len(reportDemoStages))
+	checkStageFigures(t, page, map[string]string{"symbols": "symbols", "entropy": "entropy"})
 	for _, f := range reportDemoFigures {
 		if _, err := os.Stat(filepath.Join(dir, "figures", f+".svg")); err != nil {
 			t.Error(err)
@@ -214,6 +221,47 @@ func checkReportPage(t *testing.T, page []byte, figures int) {
 	}
 }
 
+// checkStageFigures asserts that the page's section of each stage (key → figure name) holds
+// that figure with an inline svg.
+func checkStageFigures(t *testing.T, page []byte, want map[string]string) {
+	t.Helper()
+	doc, err := html.Parse(bytes.NewReader(page))
+	if err != nil {
+		t.Fatal(err)
+	}
+	attr := func(x *html.Node, k string) string {
+		for _, a := range x.Attr {
+			if a.Key == k {
+				return a.Val
+			}
+		}
+		return ""
+	}
+	found := map[string]bool{}
+	var walk func(x *html.Node, section string)
+	walk = func(x *html.Node, section string) {
+		if x.Type == html.ElementNode && x.Data == "section" {
+			section = attr(x, "id")
+		}
+		if x.Type == html.ElementNode && x.Data == "figure" {
+			for c := x.FirstChild; c != nil; c = c.NextSibling {
+				if c.Type == html.ElementNode && c.Data == "svg" && attr(x, "id") == "fig-"+want[section] {
+					found[section] = true
+				}
+			}
+		}
+		for c := x.FirstChild; c != nil; c = c.NextSibling {
+			walk(c, section)
+		}
+	}
+	walk(doc, "")
+	for k, f := range want {
+		if !found[k] {
+			t.Errorf("page: the %s section has no figure %s with an inline svg", k, f)
+		}
+	}
+}
+
 // TestReportSameJSONAsCommands: the report's lag, dim, lyapunov and fractal objects are exactly
 // what `unfold lag --json`, `unfold dim --json`, … print for the same file, and its regime
 // object what `unfold regime --json` prints on the same embedding; a file name holding <script>
@@ -273,7 +321,15 @@ func TestReportSameJSONAsCommands(t *testing.T) {
 	if bytes.Contains(page, []byte("<script")) || !bytes.Contains(page, []byte("x&lt;script&gt;alert(1)&lt;script&gt;.csv")) {
 		t.Fatal("the file name is not escaped on the page")
 	}
-	checkReportPage(t, page, len(m["provenance"].(map[string]any)["stages"].([]any)))
+	// one figure per stage whose object is in result.json (a stage with no answer and nothing to
+	// show, such as symbols on too few section crossings and then entropy, has no section)
+	shown := 0
+	for _, st := range m["provenance"].(map[string]any)["stages"].([]any) {
+		if _, ok := m[st.(map[string]any)["key"].(string)]; ok {
+			shown++
+		}
+	}
+	checkReportPage(t, page, shown)
 }
 
 // TestBatchShardsResumeCorrupt: two shards together analyse every input exactly once, a
