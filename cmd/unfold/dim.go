@@ -156,6 +156,23 @@ func (a *app) embeddingDefaults(x []float64, lag, theiler int) (int, string, int
 	return lag, lagMethod, theiler, from, cautions, nil
 }
 
+// chooseDimension is the dimension choice of the commands that embed (embed, lyapunov) when
+// --dim is not given: embed.ChooseDimension with the lag and Theiler window already chosen, its
+// reason printed on stderr. A record for which no dimension up to maxDim qualifies is a
+// "no answer" that says so and suggests --dim.
+func (a *app) chooseDimension(command, path string, x []float64, lag, theiler, maxDim int, norm neighbors.Norm) (*embed.DimChoice, error) {
+	c, err := embed.ChooseDimension(x, embed.DimOptions{Lag: lag, MaxDim: maxDim, Theiler: theiler,
+		Norm: norm, Threads: a.threads(), Progress: a.progress("false neighbours")})
+	if err != nil {
+		return nil, noAnswer(fmt.Errorf("%s: %s: choosing the dimension: %w", command, path, err))
+	}
+	if c.Dimension == 0 {
+		return nil, noAnswer(fmt.Errorf("%s: %s: no embedding dimension up to %d qualifies (%s); give --dim", command, path, maxDim, c.Reason))
+	}
+	a.notef("dimension %d chosen (%s): %s", c.Dimension, c.Method, c.Reason)
+	return c, nil
+}
+
 // checkDimOptions validates the flags of `dim`.
 func checkDimOptions(o *dimOptions) (neighbors.Norm, error) {
 	norm, err := parseNorm(o.norm)

@@ -15,6 +15,7 @@ import (
 	"gonum.org/v1/plot/vg"
 
 	"unfold/embed"
+	"unfold/neighbors"
 	"unfold/series"
 )
 
@@ -137,17 +138,12 @@ func (a *app) embedCompute(path string, s *series.Series, o *embedOptions, lagMe
 		dimMethod = "given"
 	}
 	if dim == 0 {
-		c, err := embed.ChooseDimension(x, embed.DimOptions{Lag: lag, MaxDim: o.maxDim, Theiler: theiler,
-			Threads: a.threads(), Progress: a.progress("false neighbours")})
+		c, err := a.chooseDimension("embed", path, x, lag, theiler, o.maxDim, neighbors.Euclidean)
 		if err != nil {
-			return fail(noAnswer(fmt.Errorf("embed: %s: %w", path, err)))
-		}
-		if c.Dimension == 0 {
-			return fail(noAnswer(fmt.Errorf("embed: %s: %s; give --dim", path, c.Reason)))
+			return fail(err)
 		}
 		dim, dimMethod = c.Dimension, c.Method
 		cautions = append(cautions, c.Cautions...)
-		a.notef("dimension %d chosen (%s): %s", dim, c.Method, c.Reason)
 	}
 	e, err := embed.New(x, lag, dim)
 	if err != nil {

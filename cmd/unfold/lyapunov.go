@@ -12,7 +12,6 @@ import (
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/vg"
 
-	"unfold/embed"
 	"unfold/fit"
 	"unfold/lyapunov"
 	"unfold/neighbors"
@@ -231,17 +230,12 @@ func (a *app) lyapunovCompute(path string, s *series.Series, o *lyapunovOptions,
 		dimMethod = "given"
 	}
 	if dim == 0 {
-		c, err := embed.ChooseDimension(x, embed.DimOptions{Lag: lag, MaxDim: o.maxDim, Theiler: theiler,
-			Norm: norm, Threads: a.threads(), Progress: a.progress("false neighbours")})
+		c, err := a.chooseDimension("lyapunov", path, x, lag, theiler, o.maxDim, norm)
 		if err != nil {
-			return fail(noAnswer(fmt.Errorf("lyapunov: %s: choosing the dimension: %w", path, err)))
-		}
-		if c.Dimension == 0 {
-			return fail(noAnswer(fmt.Errorf("lyapunov: %s: no embedding dimension up to %d qualifies (%s); give --dim", path, o.maxDim, c.Reason)))
+			return fail(err)
 		}
 		dim, dimMethod = c.Dimension, c.Method
 		cautions = append(cautions, c.Cautions...)
-		a.notef("dimension %d chosen (%s): %s", dim, c.Method, c.Reason)
 	}
 	if theilerFrom != "given" {
 		a.notef("Theiler window %d samples (%s)", theiler, theilerFrom)
