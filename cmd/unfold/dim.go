@@ -173,6 +173,39 @@ func (a *app) chooseDimension(command, path string, x []float64, lag, theiler, m
 	return c, nil
 }
 
+// embeddingChoice is the delay embedding a command works in, each part with the rule that gave it.
+type embeddingChoice struct {
+	lag, theiler, dim                 int
+	lagMethod, theilerFrom, dimMethod string
+	cautions                          []string
+}
+
+// chooseEmbedding fills in what the flags leave open — lag ≤ 0, theiler < 0, dim 0 — by embed's
+// rules (embeddingDefaults, chooseDimension). lagMethod and dimMethod name the rules a caller
+// already used for lag and dim (the report's earlier stages); "" means given, or chosen here.
+func (a *app) chooseEmbedding(command, path string, x []float64, lag, theiler, dim, maxDim int, norm neighbors.Norm, lagMethod, dimMethod string) (embeddingChoice, error) {
+	lag, method, theiler, theilerFrom, cautions, err := a.embeddingDefaults(x, lag, theiler)
+	if err != nil {
+		return embeddingChoice{}, noAnswer(fmt.Errorf("%s: %s: %w", command, path, err))
+	}
+	if lagMethod == "" {
+		lagMethod = method
+	}
+	if dimMethod == "" {
+		dimMethod = "given"
+	}
+	if dim == 0 {
+		c, err := a.chooseDimension(command, path, x, lag, theiler, maxDim, norm)
+		if err != nil {
+			return embeddingChoice{}, err
+		}
+		dim, dimMethod = c.Dimension, c.Method
+		cautions = append(cautions, c.Cautions...)
+	}
+	return embeddingChoice{lag: lag, theiler: theiler, dim: dim, lagMethod: lagMethod,
+		theilerFrom: theilerFrom, dimMethod: dimMethod, cautions: cautions}, nil
+}
+
 // checkDimOptions validates the flags of `dim`.
 func checkDimOptions(o *dimOptions) (neighbors.Norm, error) {
 	norm, err := parseNorm(o.norm)

@@ -126,25 +126,12 @@ func (a *app) embedCompute(path string, s *series.Series, o *embedOptions, lagMe
 		return fail(err)
 	}
 	x := s.Values
-	lag, method, theiler, _, cautions, err := a.embeddingDefaults(x, o.lag, o.theiler)
+	ec, err := a.chooseEmbedding("embed", path, x, o.lag, o.theiler, o.dim, o.maxDim, neighbors.Euclidean, lagMethod, dimMethod)
 	if err != nil {
-		return fail(noAnswer(fmt.Errorf("embed: %s: %w", path, err)))
+		return fail(err)
 	}
-	if lagMethod == "" {
-		lagMethod = method
-	}
-	dim := o.dim
-	if dimMethod == "" {
-		dimMethod = "given"
-	}
-	if dim == 0 {
-		c, err := a.chooseDimension("embed", path, x, lag, theiler, o.maxDim, neighbors.Euclidean)
-		if err != nil {
-			return fail(err)
-		}
-		dim, dimMethod = c.Dimension, c.Method
-		cautions = append(cautions, c.Cautions...)
-	}
+	lag, theiler, dim, cautions := ec.lag, ec.theiler, ec.dim, ec.cautions
+	lagMethod, dimMethod = ec.lagMethod, ec.dimMethod
 	e, err := embed.New(x, lag, dim)
 	if err != nil {
 		return fail(noAnswer(fmt.Errorf("embed: %s: %w", path, err)))

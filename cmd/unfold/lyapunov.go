@@ -218,25 +218,12 @@ func (a *app) lyapunovCompute(path string, s *series.Series, o *lyapunovOptions,
 		return fail(err)
 	}
 	x := s.Values
-	lag, lagBy, theiler, theilerFrom, cautions, err := a.embeddingDefaults(x, o.lag, o.theiler)
+	ec, err := a.chooseEmbedding("lyapunov", path, x, o.lag, o.theiler, o.dim, o.maxDim, norm, lagMethod, dimMethod)
 	if err != nil {
-		return fail(noAnswer(fmt.Errorf("lyapunov: %s: %w", path, err)))
+		return fail(err)
 	}
-	if lagMethod == "" {
-		lagMethod = lagBy
-	}
-	dim := o.dim
-	if dimMethod == "" {
-		dimMethod = "given"
-	}
-	if dim == 0 {
-		c, err := a.chooseDimension("lyapunov", path, x, lag, theiler, o.maxDim, norm)
-		if err != nil {
-			return fail(err)
-		}
-		dim, dimMethod = c.Dimension, c.Method
-		cautions = append(cautions, c.Cautions...)
-	}
+	lag, theiler, theilerFrom, dim, cautions := ec.lag, ec.theiler, ec.theilerFrom, ec.dim, ec.cautions
+	lagMethod, dimMethod = ec.lagMethod, ec.dimMethod
 	if theilerFrom != "given" {
 		a.notef("Theiler window %d samples (%s)", theiler, theilerFrom)
 	}
