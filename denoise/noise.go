@@ -3,12 +3,9 @@ package denoise
 import (
 	"fmt"
 	"math"
-	"runtime"
 
 	"unfold/neighbors"
 )
-
-func maxProcs() int { return runtime.GOMAXPROCS(0) }
 
 // noiseRefs is the largest number of reference points of the noise estimate.
 const noiseRefs = 1000

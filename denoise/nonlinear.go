@@ -4,7 +4,6 @@ import (
 	"fmt"
 	"math"
 	"slices"
-	"sync"
 	"sync/atomic"
 
 	"gonum.org/v1/gonum/blas"
@@ -320,7 +319,12 @@ type worker struct {
 }
 
 func newWorker(ix *neighbors.Index, m int, endWeight float64) *worker {
-	wk := &worker{s: ix.NewSearcher(), mean: make([]float64, m), cov: make([]float64, m*m),
+	return newWorkerWith(ix.NewSearcher(), m, endWeight)
+}
+
+// newWorkerWith is newWorker around a Searcher the caller already has.
+func newWorkerWith(s *neighbors.Searcher, m int, endWeight float64) *worker {
+	wk := &worker{s: s, mean: make([]float64, m), cov: make([]float64, m*m),
 		w: make([]float64, m), delta: make([]float64, m), r: make([]float64, m)}
 	for a := range wk.r {
 		wk.r[a] = 1
@@ -405,12 +409,11 @@ func (wk *worker) eigen(m int) bool {
 // pass computes the corrections of one iteration into theta (per vector) and okv, in parallel;
 // it returns the number of vectors left uncorrected.
 func (o Options) pass(ix *neighbors.Index, cur, theta []float64, okv []bool) int {
-	nv := ix.Len()
 	m := o.Dim
 	k0 := (m - 1) / 2
 	var bad atomic.Int64
-	forChunks(nv, o.Threads, o.Progress, func() func(i int) {
-		wk := newWorker(ix, m, o.EndWeight)
+	ix.ForEachWorker(o.Threads, o.Progress, func(s *neighbors.Searcher) func(i int) {
+		wk := newWorkerWith(s, m, o.EndWeight)
 		wk.cap = o.MaxNeighbors
 		return func(i int) {
 			th := theta[i*m : i*m+m]
@@ -483,47 +486,6 @@ func (o Options) gather(cur, theta []float64, okv []bool, corr []float64) {
 			corr[n] /= float64(c)
 		}
 	}
-}
-
-// forChunks runs the function returned by mk (one per goroutine, holding its scratch) for every
-// i in [0, n) on threads goroutines (<= 0: all cores), in fixed chunks.
-func forChunks(n, threads int, progress func(done, total int), mk func() func(i int)) {
-	if threads <= 0 {
-		threads = maxProcs()
-	}
-	const chunk = 256
-	threads = max(min(threads, (n+chunk-1)/chunk), 1)
-	var next atomic.Int64
-	var mu sync.Mutex
-	done := 0
-	run := func() {
-		fn := mk()
-		for {
-			start := int(next.Add(1)-1) * chunk
-			if start >= n {
-				return
-			}
-			end := min(start+chunk, n)
-			for i := start; i < end; i++ {
-				fn(i)
-			}
-			if progress != nil {
-				mu.Lock()
-				done += end - start
-				progress(done, n)
-				mu.Unlock()
-			}
-		}
-	}
-	if threads == 1 {
-		run()
-		return
-	}
-	var wg sync.WaitGroup
-	for range threads {
-		wg.Go(run)
-	}
-	wg.Wait()
 }
 
 // median returns the median of v (v is reordered).

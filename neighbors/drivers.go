@@ -16,9 +16,10 @@ func resolveThreads(threads int) int {
 	return max(threads, 1)
 }
 
-// parallel runs body over [0, total) in chunks on threads goroutines, each with its own
-// Searcher. progress, when not nil, is called serially with the number of items done.
-func (ix *Index) parallel(total, chunk, threads int, progress func(done, total int), body func(s *Searcher, start, end int)) {
+// parallel runs over [0, total) in chunks on threads goroutines; each goroutine calls setup once
+// with its own Searcher and runs the chunk function setup returns. progress, when not nil, is
+// called serially with the number of items done.
+func (ix *Index) parallel(total, chunk, threads int, progress func(done, total int), setup func(s *Searcher) func(start, end int)) {
 	if total <= 0 {
 		return
 	}
@@ -27,14 +28,14 @@ func (ix *Index) parallel(total, chunk, threads int, progress func(done, total i
 	var mu sync.Mutex
 	done := 0
 	work := func() {
-		s := ix.NewSearcher()
+		body := setup(ix.NewSearcher())
 		for {
 			start := int(next.Add(1)-1) * chunk
 			if start >= total {
 				return
 			}
 			end := min(start+chunk, total)
-			body(s, start, end)
+			body(start, end)
 			if progress != nil {
 				mu.Lock()
 				done += end - start
@@ -54,6 +55,13 @@ func (ix *Index) parallel(total, chunk, threads int, progress func(done, total i
 	wg.Wait()
 }
 
+// each turns a chunk body that needs only the goroutine's Searcher into parallel's setup form.
+func each(body func(s *Searcher, start, end int)) func(s *Searcher) func(start, end int) {
+	return func(s *Searcher) func(start, end int) {
+		return func(start, end int) { body(s, start, end) }
+	}
+}
+
 // chunkFor returns a chunk size for n point queries.
 func chunkFor(n int) int { return min(max(n/256, 64), 2048) }
 
@@ -62,9 +70,23 @@ func chunkFor(n int) int { return min(max(n/256, 64), 2048) }
 // order (neighbouring points together, for cache locality), not in index order; results that
 // fn writes by index are deterministic for any thread count. progress may be nil.
 func (ix *Index) ForEach(threads int, progress func(done, total int), fn func(s *Searcher, i int)) {
-	ix.parallel(ix.n, chunkFor(ix.n), threads, progress, func(s *Searcher, start, end int) {
+	ix.parallel(ix.n, chunkFor(ix.n), threads, progress, each(func(s *Searcher, start, end int) {
 		for p := start; p < end; p++ {
 			fn(s, int(ix.perm[p]))
+		}
+	}))
+}
+
+// ForEachWorker is ForEach for work that needs scratch space of its own beside the Searcher:
+// each goroutine calls setup once with its Searcher and runs the function it returns for every
+// point it is given, in the same chunks and order as ForEach.
+func (ix *Index) ForEachWorker(threads int, progress func(done, total int), setup func(s *Searcher) func(i int)) {
+	ix.parallel(ix.n, chunkFor(ix.n), threads, progress, func(s *Searcher) func(start, end int) {
+		fn := setup(s)
+		return func(start, end int) {
+			for p := start; p < end; p++ {
+				fn(int(ix.perm[p]))
+			}
 		}
 	})
 }
@@ -82,7 +104,7 @@ func (ix *Index) AllKNN(k int, theiler int, lo, hi int, threads int, progress fu
 	idx = make([]int32, n*k)
 	dist = make([]float64, n*k)
 	dim := ix.dim
-	ix.parallel(n, chunkFor(n), threads, progress, func(s *Searcher, start, end int) {
+	ix.parallel(n, chunkFor(n), threads, progress, each(func(s *Searcher, start, end int) {
 		buf := s.nbuf
 		defer func() { s.nbuf = buf }()
 		for p := start; p < end; p++ {
@@ -97,7 +119,7 @@ func (ix *Index) AllKNN(k int, theiler int, lo, hi int, threads int, progress fu
 				}
 			}
 		}
-	})
+	}))
 	return idx, dist
 }
 

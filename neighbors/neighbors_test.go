@@ -6,6 +6,7 @@ import (
 	"math/rand/v2"
 	"slices"
 	"strings"
+	"sync"
 	"testing"
 )
 
@@ -235,6 +236,36 @@ func TestForEachVisitsEveryPointOnce(t *testing.T) {
 	for i := range nn {
 		if int(idx[i]) != nn[i] {
 			t.Fatalf("point %d: ForEach %d, AllKNN %d", i, nn[i], idx[i])
+		}
+	}
+}
+
+// TestForEachWorkerSetupOncePerGoroutine: every point is visited once, and setup runs once per
+// goroutine (at most the thread count), with that goroutine's Searcher.
+func TestForEachWorkerSetupOncePerGoroutine(t *testing.T) {
+	rng := rand.New(rand.NewPCG(9, 10))
+	pts := uniform(rng, 5000, 3)
+	ix, _ := Build(pts, 3, Max)
+	var mu sync.Mutex
+	setups := 0
+	seen := make([]int32, ix.Len())
+	nn := make([]int, ix.Len())
+	ix.ForEachWorker(2, nil, func(s *Searcher) func(i int) {
+		mu.Lock()
+		setups++
+		mu.Unlock()
+		return func(i int) {
+			seen[i]++
+			nn[i] = s.KNN(ix.Coords(i), 1, Query{Self: i}, nil)[0].Index
+		}
+	})
+	if setups < 1 || setups > 2 {
+		t.Errorf("setup ran %d times on 2 threads", setups)
+	}
+	idx, _ := ix.AllKNN(1, 0, 0, 0, 1, nil)
+	for i, c := range seen {
+		if c != 1 || int(idx[i]) != nn[i] {
+			t.Fatalf("point %d: visited %d times, neighbour %d (AllKNN %d)", i, c, nn[i], idx[i])
 		}
 	}
 }
