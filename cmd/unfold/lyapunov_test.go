@@ -5,36 +5,15 @@ import (
 	"math"
 	"os"
 	"path/filepath"
-	"strconv"
 	"testing"
 )
-
-// writeLogistic writes x of the logistic map r = 4 (synthetic, our own scenario) as one column.
-func writeLogistic(t *testing.T, dir string, n int) string {
-	t.Helper()
-	var b bytes.Buffer
-	b.WriteString("x\n")
-	x := 0.3
-	for i := -1000; i < n; i++ {
-		x = 4 * x * (1 - x)
-		if i >= 0 {
-			b.WriteString(strconv.FormatFloat(x, 'g', 17, 64))
-			b.WriteByte('\n')
-		}
-	}
-	p := filepath.Join(dir, "logistic.csv")
-	if err := os.WriteFile(p, b.Bytes(), 0o644); err != nil {
-		t.Fatal(err)
-	}
-	return p
-}
 
 // TestLyapunovAcceptance is issue 5's acceptance check: --json gives lambda_max, interval, fit
 // and the curve; --spectrum adds spectrum and kaplan_yorke_dimension; --csv and --plot write
 // files; the logistic map's exponent is ln 2 (CHECKS.md §1, E) within 5 % (§3).
 func TestLyapunovAcceptance(t *testing.T) {
 	dir := t.TempDir()
-	p := writeLogistic(t, dir, 4000)
+	p := writeLogisticMap(t, dir, 4000)
 	png := filepath.Join(dir, "div.png")
 	csv := filepath.Join(dir, "div.csv")
 	out, errs, code := runCLI(t, "", "lyapunov", "--json", "--lag", "1", "--dim", "1", "--theiler", "1",

@@ -10,7 +10,7 @@ import (
 	"testing"
 )
 
-// writeLogistic writes n iterates of the logistic map r = 4 from 0.3 (CHECKS.md §13) as a t,x CSV.
+// writeLogisticMap writes n iterates of the logistic map r = 4 from 0.3 (CHECKS.md §13) as a t,x CSV.
 func writeLogisticMap(t *testing.T, dir string, n int) string {
 	t.Helper()
 	var b bytes.Buffer
