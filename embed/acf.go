@@ -1,10 +1,9 @@
 package embed
 
 import (
-	"fmt"
 	"math"
 
-	"gonum.org/v1/gonum/dsp/fourier"
+	"unfold/spectral"
 )
 
 // Autocorrelation is the sample autocorrelation function of a record and the two decay times
@@ -22,43 +21,16 @@ type Autocorrelation struct {
 }
 
 // AutocorrelationFFT computes the autocorrelation of x up to maxLag samples (at most len(x)−1)
-// by the Wiener–Khinchin theorem: the inverse transform of the periodogram of the mean-removed
-// record, zero padded to at least 2·len(x) so that it is not circular (gonum/dsp/fourier).
-// It costs O(N log N) whatever maxLag is.
+// by the Wiener–Khinchin theorem (spectral.Autocorrelation: the inverse transform of the
+// periodogram of the mean-removed record, zero padded to at least 2·len(x) so that it is not
+// circular) and reads its first zero and 1/e decay time. It costs O(N log N) whatever maxLag is.
 func AutocorrelationFFT(x []float64, maxLag int) (*Autocorrelation, error) {
-	n := len(x)
-	if n < 2 {
-		return nil, fmt.Errorf("autocorrelation: %d samples are too few (need at least 2)", n)
+	r, err := spectral.Autocorrelation(x, maxLag)
+	if err != nil {
+		return nil, err
 	}
-	if maxLag < 0 || maxLag > n-1 {
-		maxLag = n - 1
-	}
-	var mean float64
-	for _, v := range x {
-		mean += v
-	}
-	mean /= float64(n)
-	nfft := smoothLength(2 * n)
-	buf := make([]float64, nfft)
-	for i, v := range x {
-		buf[i] = v - mean
-	}
-	fft := fourier.NewFFT(nfft)
-	c := fft.Coefficients(nil, buf)
-	for k := range c {
-		c[k] = complex(real(c[k])*real(c[k])+imag(c[k])*imag(c[k]), 0)
-	}
-	acov := fft.Sequence(buf, c)
-	r0 := acov[0]
-	if !(r0 > 0) {
-		return nil, fmt.Errorf("autocorrelation: the record is constant")
-	}
-	a := &Autocorrelation{R: make([]float64, maxLag+1)}
-	for k := range a.R {
-		a.R[k] = acov[k] / r0
-	}
-	a.R[0] = 1
-	for k := 1; k <= maxLag; k++ {
+	a := &Autocorrelation{R: r}
+	for k := 1; k < len(r); k++ {
 		if a.FirstZero == 0 && a.R[k] <= 0 {
 			a.FirstZero = k
 		}
@@ -67,20 +39,4 @@ func AutocorrelationFFT(x []float64, maxLag int) (*Autocorrelation, error) {
 		}
 	}
 	return a, nil
-}
-
-// smoothLength returns the smallest 5-smooth number (only prime factors 2, 3, 5) ≥ n, a length
-// the mixed-radix FFT handles fast.
-func smoothLength(n int) int {
-	for k := max(n, 1); ; k++ {
-		r := k
-		for _, f := range [...]int{2, 3, 5} {
-			for r%f == 0 {
-				r /= f
-			}
-		}
-		if r == 1 {
-			return k
-		}
-	}
 }

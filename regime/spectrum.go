@@ -1,86 +1,17 @@
 package regime
 
 import (
-	"fmt"
 	"math"
 	"slices"
 
 	"gonum.org/v1/gonum/dsp/fourier"
+
+	"unfold/spectral"
 )
 
-// Spectrum is a one-sided power spectral density estimate.
-type Spectrum struct {
-	// Freq are the bin frequencies in cycles per time unit (k/(SegLen·Dt)).
-	Freq []float64
-	// Power is the one-sided density in signal units² per (cycle per time unit); its sum
-	// times Resolution is the variance of the (demeaned) signal.
-	Power []float64
-	// SegLen is the segment length in samples and Segments the number of segments averaged.
-	SegLen, Segments int
-	// Resolution is the bin width, 1/(SegLen·Dt), in cycles per time unit.
-	Resolution float64
-	// DOF is the approximate number of degrees of freedom of each bin's estimate (Welch 1967;
-	// for Hann windows with 50 % overlap about 2·Segments·0.95, a figure of common practice).
-	DOF float64
-}
-
-// Welch returns the Welch (1967) power spectrum of x sampled every dt time units: the mean of
-// the Hann-windowed periodograms of segments of segLen samples overlapping by half, after the
-// mean is removed. segLen ≤ 0 chooses the largest power of two ≤ N/8 (at least 64, at most
-// 16384), which averages about 15 segments.
-//
-// Reference: P. D. Welch (1967), "The use of fast Fourier transform for the estimation of power
-// spectra: a method based on time averaging over short, modified periodograms", IEEE
-// Transactions on Audio and Electroacoustics 15(2), 70–73.
-func Welch(x []float64, dt float64, segLen int) (*Spectrum, error) {
-	n := len(x)
-	if dt <= 0 {
-		dt = 1
-	}
-	if segLen <= 0 {
-		segLen = 64
-		for segLen*2 <= n/8 && segLen < 16384 {
-			segLen *= 2
-		}
-	}
-	if n < segLen || segLen < 8 {
-		return nil, fmt.Errorf("spectrum: %d samples with segments of %d: need at least one full segment of 8 or more", n, segLen)
-	}
-	mean, _ := meanVar(x)
-	w := make([]float64, segLen)
-	wss := hann(w)
-	fft := fourier.NewFFT(segLen)
-	buf := make([]float64, segLen)
-	coef := make([]complex128, segLen/2+1)
-	pw := make([]float64, segLen/2+1)
-	step := segLen / 2
-	segs := 0
-	for s := 0; s+segLen <= n; s += step {
-		for i := range buf {
-			buf[i] = (x[s+i] - mean) * w[i]
-		}
-		fft.Coefficients(coef, buf)
-		for k, c := range coef {
-			pw[k] += real(c)*real(c) + imag(c)*imag(c)
-		}
-		segs++
-	}
-	sp := &Spectrum{SegLen: segLen, Segments: segs, Resolution: 1 / (float64(segLen) * dt),
-		Freq: make([]float64, len(pw)), Power: pw, DOF: 2 * float64(segs) * 0.95}
-	if segs == 1 {
-		sp.DOF = 2
-	}
-	norm := dt / (wss * float64(segs))
-	for k := range pw {
-		sp.Freq[k] = float64(k) * sp.Resolution
-		f := 2.0
-		if k == 0 || (segLen%2 == 0 && k == len(pw)-1) {
-			f = 1
-		}
-		pw[k] *= f * norm
-	}
-	return sp, nil
-}
+// Spectrum is a one-sided power spectral density estimate (Welch 1967), computed by
+// spectral.Welch.
+type Spectrum = spectral.Spectrum
 
 // Peak is a significant spectral line.
 type Peak struct {
@@ -128,7 +59,7 @@ type Lines struct {
 
 // LineOptions configure LineAnalysis; the zero value uses the defaults.
 type LineOptions struct {
-	// SegLen is the Welch segment length (0: see Welch).
+	// SegLen is the Welch segment length (0: spectral.DefaultSegLen).
 	SegLen int
 	// Alpha is the family-wise false-line rate of the significance rule (0 means 0.01).
 	Alpha float64
@@ -166,7 +97,7 @@ func LineAnalysis(x []float64, dt float64, opt LineOptions) (*Lines, error) {
 	if dt <= 0 {
 		dt = 1
 	}
-	sp, err := Welch(x, dt, opt.SegLen)
+	sp, err := spectral.Welch(x, dt, spectral.WelchOptions{SegLen: opt.SegLen})
 	if err != nil {
 		return nil, err
 	}
@@ -212,7 +143,7 @@ func LineAnalysis(x []float64, dt float64, opt LineOptions) (*Lines, error) {
 		ok := true
 		for _, s := range kept {
 			d := math.Abs(float64(c.k - s.k))
-			if d < 2.5 || c.p < 10*s.p*hannLeak(d) {
+			if d < 2.5 || c.p < 10*s.p*spectral.HannLeakage(d) {
 				ok = false
 				break
 			}
@@ -228,7 +159,7 @@ func LineAnalysis(x []float64, dt float64, opt LineOptions) (*Lines, error) {
 		return res, nil
 	}
 	// Full-length periodogram for refinement and the line fraction.
-	L := FFTLength(len(x))
+	L := spectral.LengthAtMost(len(x), maxFactor)
 	full := fullPeriodogram(x[:L])
 	res.Tolerance = 0.5 / float64(L)
 	ratio := float64(L) / float64(sp.SegLen)
@@ -422,22 +353,13 @@ func fold(f float64) float64 {
 	return math.Abs(f - math.Round(f))
 }
 
-// hannLeak bounds the relative power of a Hann window's response d bins from its centre:
-// 1/(π² d² (d² − 1)²) (from the window's transform sinc(d)/(1 − d²); arithmetic).
-func hannLeak(d float64) float64 {
-	if d < 1.5 {
-		return 1
-	}
-	return 1 / (math.Pi * math.Pi * d * d * (d*d - 1) * (d*d - 1))
-}
-
 // fullPeriodogram returns the Hann-windowed periodogram |X_k|², k = 0…L/2, of x after the
 // mean is removed.
 func fullPeriodogram(x []float64) []float64 {
 	n := len(x)
 	mean, _ := meanVar(x)
 	w := make([]float64, n)
-	hann(w)
+	spectral.Hann(w, false)
 	buf := make([]float64, n)
 	for i := range buf {
 		buf[i] = (x[i] - mean) * w[i]

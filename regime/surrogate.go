@@ -11,6 +11,8 @@ import (
 	"sync"
 
 	"gonum.org/v1/gonum/dsp/fourier"
+
+	"unfold/spectral"
 )
 
 // Method is a way of generating surrogate data.
@@ -150,7 +152,7 @@ func Surrogates(x []float64, opt SurrogateOptions) (*SurrogateSet, error) {
 	if opt.MatchEnds {
 		set.Start, set.Length, set.EndMismatch = matchEnds(x, opt.MaxTrim)
 	} else {
-		set.Length = FFTLength(len(x))
+		set.Length = spectral.LengthAtMost(len(x), maxFactor)
 		set.EndMismatch = endMismatch(x[:set.Length])
 	}
 	if set.Length < len(x) {
@@ -234,7 +236,7 @@ func matchEnds(x []float64, maxTrim float64) (start, length int, mismatch float6
 	}
 	minLen := max(16, int(math.Ceil((1-maxTrim)*float64(n))))
 	best := math.Inf(1)
-	for l := FFTLength(n); l >= minLen; l = FFTLength(l - 1) {
+	for l := spectral.LengthAtMost(n, maxFactor); l >= minLen; l = spectral.LengthAtMost(l-1, maxFactor) {
 		for s := 0; s+l <= n; s++ {
 			m := (s1[s+l] - s1[s]) / float64(l)
 			v := (s2[s+l]-s2[s])/float64(l) - m*m
@@ -254,7 +256,7 @@ func matchEnds(x []float64, maxTrim float64) (start, length int, mismatch float6
 		}
 	}
 	if length == 0 {
-		return 0, FFTLength(n), endMismatch(x[:FFTLength(n)])
+		return 0, spectral.LengthAtMost(n, maxFactor), endMismatch(x[:spectral.LengthAtMost(n, maxFactor)])
 	}
 	return start, length, best
 }

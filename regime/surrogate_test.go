@@ -7,6 +7,8 @@ import (
 	"testing"
 
 	"gonum.org/v1/gonum/dsp/fourier"
+
+	"unfold/spectral"
 )
 
 // ar1 returns n samples of x_t = φ x_{t−1} + e_t with standard Gaussian e (after a transient).
@@ -119,18 +121,9 @@ func TestMatchEndsReducesMismatch(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	whole := endMismatch(x[:FFTLength(n)])
+	whole := endMismatch(x[:spectral.LengthAtMost(n, maxFactor)])
 	if !(set.EndMismatch < whole/10) || set.Length < 1800 {
 		t.Errorf("matched mismatch %g (length %d), whole-record %g", set.EndMismatch, set.Length, whole)
-	}
-}
-
-func TestFFTLength(t *testing.T) {
-	// 10007 is prime; 10000 = 2⁴·5⁴ (arithmetic).
-	for _, c := range [][2]int{{10007, 10000}, {4096, 4096}, {97, 96}, {1000, 1000}, {143, 140}} {
-		if got := FFTLength(c[0]); got != c[1] {
-			t.Errorf("FFTLength(%d) = %d, want %d", c[0], got, c[1])
-		}
 	}
 }
 

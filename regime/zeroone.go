@@ -7,6 +7,8 @@ import (
 	"slices"
 
 	"gonum.org/v1/gonum/dsp/fourier"
+
+	"unfold/spectral"
 )
 
 // ZeroOneOptions configure ZeroOne; the zero value uses the defaults.
@@ -71,7 +73,7 @@ func ZeroOne(x []float64, opt ZeroOneOptions) (*ZeroOneResult, error) {
 	ncut := n / 10
 	mean, _ := meanVar(phi)
 	rng := rand.New(rand.NewPCG(splitmix(opt.Seed), 0x0123456789abcdef))
-	L := fftLengthAtLeast(2 * n)
+	L := spectral.LengthAtLeast(2*n, maxFactor)
 	fft := fourier.NewCmplxFFT(L)
 	z := make([]complex128, L)
 	sq := make([]float64, n+1) // prefix sums of |z_j|²

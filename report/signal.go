@@ -4,10 +4,11 @@ import (
 	"image/color"
 	"math"
 
-	"gonum.org/v1/gonum/dsp/fourier"
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/vg"
+
+	"unfold/spectral"
 )
 
 // SignalFigure draws the record (at most maxShown samples from its start, so that single
@@ -73,47 +74,19 @@ func SignalFigure(name, signal, unit, timeUnit string, x []float64, dt float64, 
 		Width: 9 * vg.Inch, Height: 6.5 * vg.Inch, Rows: [][]*plot.Plot{{p1}, {p2}}}, nil
 }
 
-// welch returns the frequencies and the averaged one-sided periodogram.
+// welch returns the frequencies and the Welch spectrum of x with the symmetric Hann window and
+// segments of 4096 samples, halved (down to 16) until one fits the record; nil for records
+// shorter than 16 samples.
 func welch(x []float64, dt float64) ([]float64, []float64) {
 	seg := 4096
 	for seg > 16 && seg > len(x) {
 		seg /= 2
 	}
-	if len(x) < 16 {
+	sp, err := spectral.Welch(x, dt, spectral.WelchOptions{SegLen: seg, Symmetric: true})
+	if err != nil {
 		return nil, nil
 	}
-	fft := fourier.NewFFT(seg)
-	win := make([]float64, seg)
-	var wss float64
-	for i := range win {
-		win[i] = 0.5 - 0.5*math.Cos(2*math.Pi*float64(i)/float64(seg-1))
-		wss += win[i] * win[i]
-	}
-	var mean float64
-	for _, v := range x {
-		mean += v
-	}
-	mean /= float64(len(x))
-	buf := make([]float64, seg)
-	coef := make([]complex128, seg/2+1)
-	pw := make([]float64, seg/2+1)
-	count := 0
-	for s := 0; s+seg <= len(x); s += seg / 2 {
-		for i := range buf {
-			buf[i] = (x[s+i] - mean) * win[i]
-		}
-		fft.Coefficients(coef, buf)
-		for k, c := range coef {
-			pw[k] += real(c)*real(c) + imag(c)*imag(c)
-		}
-		count++
-	}
-	f := make([]float64, len(pw))
-	for k := range pw {
-		pw[k] *= 2 * dt / (wss * float64(count))
-		f[k] = float64(k) / (float64(seg) * dt)
-	}
-	return f, pw
+	return sp.Freq, sp.Power
 }
 
 func itoa(n int) string {

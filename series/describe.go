@@ -7,6 +7,8 @@ import (
 	"strconv"
 
 	"gonum.org/v1/gonum/dsp/fourier"
+
+	"unfold/spectral"
 )
 
 // Summary is what `unfold inspect` reports about a record: size, sampling, statistics, the
@@ -123,35 +125,13 @@ func quantization(x []float64) float64 {
 	return r
 }
 
-// fftLength returns n when its largest prime factor is small enough for a fast mixed-radix
-// transform, and otherwise the next 5-smooth number above n (zero padding).
+// fftLength returns n when its largest prime factor is small enough (≤ 97) for a fast
+// mixed-radix transform, and otherwise the next 5-smooth number above n (zero padding).
 func fftLength(n int) int {
-	m, p := n, 2
-	largest := 1
-	for p*p <= m {
-		for m%p == 0 {
-			m /= p
-			largest = p
-		}
-		p++
-	}
-	if m > 1 {
-		largest = max(largest, m)
-	}
-	if largest <= 97 {
+	if spectral.Smooth(n, 97) {
 		return n
 	}
-	for k := n + 1; ; k++ {
-		r := k
-		for _, f := range []int{2, 3, 5} {
-			for r%f == 0 {
-				r /= f
-			}
-		}
-		if r == 1 {
-			return k
-		}
-	}
+	return spectral.LengthAtLeast(n, 5)
 }
 
 // dominantPeriod returns the period in samples of the largest periodogram peak above zero
@@ -269,27 +249,10 @@ const acfSegment = 1 << 18
 // autocovariance computed by FFT with zero padding (so it is not circular).
 func correlationTime(x []float64, mean, std float64) float64 {
 	seg := min(len(x), acfSegment)
-	nfft := fftLength(2 * seg)
-	fft := fourier.NewFFT(nfft)
-	buf := make([]float64, nfft)
+	ac := spectral.NewAutocovariance(seg, fftLength(2*seg))
 	acov := make([]float64, seg)
-	var c []complex128
-	var seq []float64
 	for lo := 0; lo+seg <= len(x); lo += seg {
-		for i := range buf {
-			buf[i] = 0
-		}
-		for i, v := range x[lo : lo+seg] {
-			buf[i] = v - mean
-		}
-		c = fft.Coefficients(c, buf)
-		for k := range c {
-			c[k] = complex(real(c[k])*real(c[k])+imag(c[k])*imag(c[k]), 0)
-		}
-		seq = fft.Sequence(seq, c)
-		for k := range acov {
-			acov[k] += seq[k]
-		}
+		ac.Add(acov, x[lo:lo+seg], mean)
 	}
 	r0 := acov[0]
 	if r0 <= 0 {
