@@ -96,6 +96,47 @@ type DimChoice struct {
 // with E1(d) > 0.9 and |E1(d+1) − E1(d)| < 0.05·E1(d), whichever is smaller; Method says
 // which rule gave it.
 func ChooseDimension(x []float64, opt DimOptions) (*DimChoice, error) {
+	c, err := dimCurves(x, opt)
+	if err != nil {
+		return nil, err
+	}
+	c.decide()
+	return c, nil
+}
+
+// FalseNeighbors returns the false-nearest-neighbour fractions for m = 1 … MaxDim at the lag
+// opt.Lag (Kennel, Brown & Abarbanel 1992, "Determining embedding dimension for phase-space
+// reconstruction using a geometrical construction", Physical Review A 45, 3403–3411): the
+// nearest neighbour of a delay vector in dimension m, outside the Theiler window, is false when
+// adding the (m+1)-th coordinate stretches the distance, |x_{i+mτ} − x_{j+mτ}| / R_m > RTol, or
+// when the new distance is large against the size of the attractor, R_{m+1} / R_A > ATol. The
+// curve is the one ChooseDimension reads (DimChoice.FNN); it makes no choice.
+func FalseNeighbors(x []float64, opt DimOptions) ([]FNNPoint, error) {
+	c, err := dimCurves(x, opt)
+	if err != nil {
+		return nil, err
+	}
+	return c.FNN, nil
+}
+
+// Cao returns Cao's E1(d) = E(d+1)/E(d) and E2(d) = E*(d+1)/E*(d) for d = 1 … MaxDim−1 at the
+// lag opt.Lag (L. Cao 1997, "Practical method for determining the minimum embedding dimension
+// of a scalar time series", Physica D 110, 43–50), where E(d) is the mean of R_{d+1}/R_d over
+// the nearest neighbours in dimension d and E*(d) the mean of |x_{i+dτ} − x_{j+dτ}|. E1 stops
+// changing from the minimum embedding dimension on; E2 stays near 1 for every d for random
+// data. The curve is the one ChooseDimension reads (DimChoice.Cao); it makes no choice.
+// Cao used the maximum norm: set opt.Norm to neighbors.Max for his definition.
+func Cao(x []float64, opt DimOptions) ([]CaoPoint, error) {
+	c, err := dimCurves(x, opt)
+	if err != nil {
+		return nil, err
+	}
+	return c.Cao, nil
+}
+
+// dimCurves computes the curves of ChooseDimension (false-neighbour fractions, Cao's E, E*,
+// E1 and E2, with the parameters used and the cautions of the scan) without choosing.
+func dimCurves(x []float64, opt DimOptions) (*DimChoice, error) {
 	if opt.Lag < 1 {
 		return nil, fmt.Errorf("dimension: lag %d must be at least 1", opt.Lag)
 	}
@@ -179,7 +220,6 @@ func ChooseDimension(x []float64, opt DimOptions) (*DimChoice, error) {
 		cp := CaoPoint{Dim: d, E1: c.E[d] / c.E[d-1], E2: c.EStar[d] / c.EStar[d-1]}
 		c.Cao = append(c.Cao, cp)
 	}
-	c.decide()
 	return c, nil
 }
 
