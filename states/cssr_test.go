@@ -4,6 +4,7 @@ import (
 	"errors"
 	"math"
 	"math/rand/v2"
+	"strings"
 	"testing"
 )
 
@@ -197,5 +198,24 @@ func TestChiSquare(t *testing.T) {
 	}
 	if p, want := ChiSquareTest([]int64{30, 10}, []int64{10, 30}), math.Erfc(math.Sqrt(10)); math.Abs(p-want) > 1e-9 {
 		t.Errorf("p = %g, want %g", p, want)
+	}
+}
+
+func TestWriteDOT(t *testing.T) {
+	res, err := Reconstruct(goldenMean(50_000, 4), 2, Options{MaxLength: 3})
+	if err != nil {
+		t.Fatal(err)
+	}
+	var b strings.Builder
+	if err := WriteDOT(&b, res, "01"); err != nil {
+		t.Fatal(err)
+	}
+	out := b.String()
+	// golden mean: 2 states and 3 transitions (A -0-> A, A -1-> B, B -0-> A), exact
+	if n := strings.Count(out, " -> "); n != 3 || !strings.HasPrefix(out, "digraph") || !strings.Contains(out, `s0 -> s1 [label="1 | 0.`) || !strings.Contains(out, `s1 [label="1\n0.33`) {
+		t.Errorf("DOT output:\n%s", out)
+	}
+	if got := SuffixString([]uint8{0, 1, 1}, "ab"); got != "abb" {
+		t.Errorf("SuffixString = %q", got)
 	}
 }
