@@ -1,0 +1,127 @@
+package figure
+
+import (
+	"bufio"
+	"fmt"
+	"html"
+	"io"
+	"math"
+
+	"unfold/states"
+)
+
+// Okabe & Ito (2008), "Color universal design", colours used by the state diagram.
+const (
+	diagramFill   = "#56B4E9" // sky blue
+	diagramStroke = "#0072B2" // blue
+	diagramEdge   = "#444444"
+	diagramLoop   = "#D55E00" // vermillion, for self-loops
+)
+
+// StateDiagram writes the state-transition diagram of a causal-state machine as a standalone
+// SVG: states on a circle, each a circle whose area grows with its probability and labelled
+// with its number and probability; every transition an arrow labelled "symbol | probability",
+// curved so that A→B and B→A lie on opposite sides; self-loops drawn outside the circle.
+// alphabet names the symbols (numbers when it is too short).
+func StateDiagram(w io.Writer, r *states.Result, alphabet string) error {
+	const size, margin = 640.0, 40.0
+	n := len(r.States)
+	cx, cy := size/2, size/2+margin/2
+	ring := size/2 - 110
+	if n == 1 {
+		ring = 0
+	}
+	xs, ys, rad := make([]float64, n), make([]float64, n), make([]float64, n)
+	for i, s := range r.States {
+		a := -math.Pi/2 + 2*math.Pi*float64(i)/float64(max(n, 1))
+		xs[i], ys[i] = cx+ring*math.Cos(a), cy+ring*math.Sin(a)
+		rad[i] = 14 + 30*math.Sqrt(max(s.Probability, 0))
+		if n > 8 {
+			rad[i] = 8 + 16*math.Sqrt(max(s.Probability, 0))
+		}
+	}
+	bw := bufio.NewWriter(w)
+	fmt.Fprintf(bw, `<?xml version="1.0" encoding="UTF-8"?>
+<svg xmlns="http://www.w3.org/2000/svg" width="%g" height="%g" viewBox="0 0 %g %g" font-family="sans-serif" font-size="11pt">
+<defs><marker id="arrow" viewBox="0 0 10 10" refX="9" refY="5" markerWidth="7" markerHeight="7" orient="auto-start-reverse"><path d="M0,0 L10,5 L0,10 z" fill="%s"/></marker>
+<marker id="arrowloop" viewBox="0 0 10 10" refX="9" refY="5" markerWidth="7" markerHeight="7" orient="auto-start-reverse"><path d="M0,0 L10,5 L0,10 z" fill="%s"/></marker></defs>
+<rect width="100%%" height="100%%" fill="white"/>
+<text x="%g" y="24" text-anchor="middle" font-size="12pt">causal states: Cμ = %.3f bit, hμ = %.3f bit/symbol, L = %d</text>
+`, size, size+margin, size, size+margin, diagramEdge, diagramLoop, size/2, r.StatisticalComplexity, r.EntropyRate, r.HistoryLength)
+	// parallel edges (same pair, several symbols) get growing bends
+	seen := map[[2]int]int{}
+	for _, t := range r.Transitions {
+		if t.From < 0 || t.From >= n || t.To < 0 || t.To >= n {
+			continue
+		}
+		k := seen[[2]int{t.From, t.To}]
+		seen[[2]int{t.From, t.To}] = k + 1
+		label := html.EscapeString(states.SymbolName(t.Symbol, alphabet)) + fmt.Sprintf(" | %.3f", t.Probability)
+		if t.From == t.To {
+			writeLoop(bw, xs[t.From], ys[t.From], rad[t.From], cx, cy, k, label)
+			continue
+		}
+		writeArc(bw, xs[t.From], ys[t.From], rad[t.From], xs[t.To], ys[t.To], rad[t.To], k, label)
+	}
+	for i, s := range r.States {
+		fmt.Fprintf(bw, `<circle cx="%.1f" cy="%.1f" r="%.1f" fill="%s" fill-opacity="0.85" stroke="%s" stroke-width="2"/>
+<text x="%.1f" y="%.1f" text-anchor="middle" font-size="10pt">%d: %.3f</text>
+`, xs[i], ys[i], rad[i], diagramFill, diagramStroke, xs[i], ys[i]+4, s.ID, s.Probability)
+	}
+	fmt.Fprintf(bw, "</svg>\n")
+	return bw.Flush()
+}
+
+// writeArc draws a quadratic curve from state a to state b bent to the right of the direction
+// of travel, so the reverse edge bends the other way.
+func writeArc(w io.Writer, ax, ay, ar, bx, by, br float64, k int, label string) {
+	dx, dy := bx-ax, by-ay
+	d := math.Hypot(dx, dy)
+	if d == 0 {
+		return
+	}
+	ux, uy := dx/d, dy/d
+	px, py := -uy, ux // right-hand normal in SVG coordinates
+	bend := (0.18 + 0.12*float64(k)) * d
+	mx, my := (ax+bx)/2+px*bend, (ay+by)/2+py*bend
+	// start and end on the circles, aimed at the control point
+	sx, sy := toward(ax, ay, mx, my, ar)
+	ex, ey := toward(bx, by, mx, my, br+2)
+	fmt.Fprintf(w, `<path d="M%.1f,%.1f Q%.1f,%.1f %.1f,%.1f" fill="none" stroke="%s" stroke-width="1.5" marker-end="url(#arrow)"/>
+`, sx, sy, mx, my, ex, ey, diagramEdge)
+	lx, ly := 0.25*sx+0.5*mx+0.25*ex, 0.25*sy+0.5*my+0.25*ey
+	fmt.Fprintf(w, `<text x="%.1f" y="%.1f" text-anchor="middle">%s</text>
+`, lx+px*12, ly+py*12+4, label)
+}
+
+// writeLoop draws a self-loop on the side of the state away from the diagram's centre.
+func writeLoop(w io.Writer, x, y, r, cx, cy float64, k int, label string) {
+	ox, oy := x-cx, y-cy
+	d := math.Hypot(ox, oy)
+	if d == 0 {
+		ox, oy, d = 0, -1, 1
+	}
+	ux, uy := ox/d, oy/d
+	px, py := -uy, ux
+	reach := r + 34 + 22*float64(k)
+	spread := 0.55
+	sx, sy := x+r*(ux*math.Cos(spread)-px*math.Sin(spread)), y+r*(uy*math.Cos(spread)-py*math.Sin(spread))
+	ex, ey := x+(r+2)*(ux*math.Cos(spread)+px*math.Sin(spread)), y+(r+2)*(uy*math.Cos(spread)+py*math.Sin(spread))
+	c1x, c1y := x+reach*ux-px*reach*0.7, y+reach*uy-py*reach*0.7
+	c2x, c2y := x+reach*ux+px*reach*0.7, y+reach*uy+py*reach*0.7
+	fmt.Fprintf(w, `<path d="M%.1f,%.1f C%.1f,%.1f %.1f,%.1f %.1f,%.1f" fill="none" stroke="%s" stroke-width="1.5" marker-end="url(#arrowloop)"/>
+`, sx, sy, c1x, c1y, c2x, c2y, ex, ey, diagramLoop)
+	lx, ly := x+ux*(reach*0.78+14), y+uy*(reach*0.78+14)
+	fmt.Fprintf(w, `<text x="%.1f" y="%.1f" text-anchor="middle">%s</text>
+`, lx, ly+4, label)
+}
+
+// toward returns the point at distance r from (x, y) in the direction of (tx, ty).
+func toward(x, y, tx, ty, r float64) (float64, float64) {
+	dx, dy := tx-x, ty-y
+	d := math.Hypot(dx, dy)
+	if d == 0 {
+		return x, y
+	}
+	return x + r*dx/d, y + r*dy/d
+}
