@@ -98,3 +98,19 @@ func TestStatesNumeric(t *testing.T) {
 		t.Errorf("states %v, Cμ %v, hμ %v", m["states"], m["statistical_complexity"], m["entropy_rate"])
 	}
 }
+
+// TestEntropyPermutationComplexity: the logistic map r = 4 at D = 6 lies between the plane's
+// curves, near the maximum one (Rosso et al. 2007, Fig. 1, from memory: chaotic maps lie close to
+// the upper curve; "near" = more than three quarters of the way up from the lower curve).
+func TestEntropyPermutationComplexity(t *testing.T) {
+	in := writeLogisticMap(t, t.TempDir(), 20000)
+	out, errs, code := runCLI(t, "", "entropy", "--json", "--permutation", "6", in)
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errs)
+	}
+	m := decode(t, out)
+	c, lo, hi := m["permutation_complexity"].(float64), m["complexity_min"].(float64), m["complexity_max"].(float64)
+	if !(c > lo && c <= hi) || c-lo < 0.75*(hi-lo) {
+		t.Errorf("C = %g, curves %g … %g", c, lo, hi)
+	}
+}
