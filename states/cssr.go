@@ -84,8 +84,12 @@ type ErrTooShort struct {
 }
 
 func (e *ErrTooShort) Error() string {
-	return fmt.Sprintf("%d symbols are too few for histories of length %d over %d letters: at least %d are needed (%d·%d^%d), or give a shorter length",
+	msg := fmt.Sprintf("%d symbols are too few for histories of length %d over %d letters: at least %d are needed (%d·%d^%d)",
 		e.Have, e.Length, e.K, e.Need, MinPerCell, e.K, e.Length+1)
+	if e.Length > 1 {
+		msg += ", or give a shorter length"
+	}
+	return msg
 }
 
 // State is one recurrent causal state.
