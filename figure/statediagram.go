@@ -35,9 +35,19 @@ func StateDiagram(w io.Writer, r *states.Result, alphabet string) error {
 	for i, s := range r.States {
 		a := -math.Pi/2 + 2*math.Pi*float64(i)/float64(max(n, 1))
 		xs[i], ys[i] = cx+ring*math.Cos(a), cy+ring*math.Sin(a)
-		rad[i] = 14 + 30*math.Sqrt(max(s.Probability, 0))
+		rad[i] = 24 + 26*math.Sqrt(max(s.Probability, 0))
 		if n > 8 {
 			rad[i] = 8 + 16*math.Sqrt(max(s.Probability, 0))
+		}
+	}
+	// centre the nodes vertically (a ring of an odd count is lopsided)
+	if n > 1 {
+		lo, hi := ys[0], ys[0]
+		for _, y := range ys {
+			lo, hi = min(lo, y), max(hi, y)
+		}
+		for i := range ys {
+			ys[i] += cy - (lo+hi)/2
 		}
 	}
 	bw := bufio.NewWriter(w)
@@ -50,6 +60,7 @@ func StateDiagram(w io.Writer, r *states.Result, alphabet string) error {
 `, size, size+margin, size, size+margin, diagramEdge, diagramLoop, size/2, r.StatisticalComplexity, r.EntropyRate, r.HistoryLength)
 	// parallel edges (same pair, several symbols) get growing bends
 	seen := map[[2]int]int{}
+	loops := make([][]string, n) // self-loop labels per state: one loop, labels stacked
 	for _, t := range r.Transitions {
 		if t.From < 0 || t.From >= n || t.To < 0 || t.To >= n {
 			continue
@@ -58,15 +69,20 @@ func StateDiagram(w io.Writer, r *states.Result, alphabet string) error {
 		seen[[2]int{t.From, t.To}] = k + 1
 		label := html.EscapeString(states.SymbolName(t.Symbol, alphabet)) + fmt.Sprintf(" | %.3f", t.Probability)
 		if t.From == t.To {
-			writeLoop(bw, xs[t.From], ys[t.From], rad[t.From], cx, cy, k, label)
+			loops[t.From] = append(loops[t.From], label)
 			continue
 		}
 		writeArc(bw, xs[t.From], ys[t.From], rad[t.From], xs[t.To], ys[t.To], rad[t.To], k, label)
 	}
+	for i, ls := range loops {
+		if len(ls) > 0 {
+			writeLoop(bw, xs[i], ys[i], rad[i], cx, cy, ls)
+		}
+	}
 	for i, s := range r.States {
 		fmt.Fprintf(bw, `<circle cx="%.1f" cy="%.1f" r="%.1f" fill="%s" fill-opacity="0.85" stroke="%s" stroke-width="2"/>
-<text x="%.1f" y="%.1f" text-anchor="middle" font-size="10pt">%d: %.3f</text>
-`, xs[i], ys[i], rad[i], diagramFill, diagramStroke, xs[i], ys[i]+4, s.ID, s.Probability)
+<text x="%.1f" y="%.1f" text-anchor="middle" font-size="10pt"><tspan font-weight="bold">%d</tspan><tspan x="%.1f" dy="1.2em">%.3f</tspan></text>
+`, xs[i], ys[i], rad[i], diagramFill, diagramStroke, xs[i], ys[i]-3, s.ID, xs[i], s.Probability)
 	}
 	fmt.Fprintf(bw, "</svg>\n")
 	return bw.Flush()
@@ -82,7 +98,7 @@ func writeArc(w io.Writer, ax, ay, ar, bx, by, br float64, k int, label string) 
 	}
 	ux, uy := dx/d, dy/d
 	px, py := -uy, ux // right-hand normal in SVG coordinates
-	bend := (0.18 + 0.12*float64(k)) * d
+	bend := (0.2 + 0.32*float64(k)) * d
 	mx, my := (ax+bx)/2+px*bend, (ay+by)/2+py*bend
 	// start and end on the circles, aimed at the control point
 	sx, sy := toward(ax, ay, mx, my, ar)
@@ -94,8 +110,9 @@ func writeArc(w io.Writer, ax, ay, ar, bx, by, br float64, k int, label string) 
 `, lx+px*12, ly+py*12+4, label)
 }
 
-// writeLoop draws a self-loop on the side of the state away from the diagram's centre.
-func writeLoop(w io.Writer, x, y, r, cx, cy float64, k int, label string) {
+// writeLoop draws a self-loop on the side of the state away from the diagram's centre, with the
+// labels of all the symbols that return to the state stacked beyond it.
+func writeLoop(w io.Writer, x, y, r, cx, cy float64, labels []string) {
 	ox, oy := x-cx, y-cy
 	d := math.Hypot(ox, oy)
 	if d == 0 {
@@ -103,17 +120,22 @@ func writeLoop(w io.Writer, x, y, r, cx, cy float64, k int, label string) {
 	}
 	ux, uy := ox/d, oy/d
 	px, py := -uy, ux
-	reach := r + 34 + 22*float64(k)
-	spread := 0.55
-	sx, sy := x+r*(ux*math.Cos(spread)-px*math.Sin(spread)), y+r*(uy*math.Cos(spread)-py*math.Sin(spread))
-	ex, ey := x+(r+2)*(ux*math.Cos(spread)+px*math.Sin(spread)), y+(r+2)*(uy*math.Cos(spread)+py*math.Sin(spread))
-	c1x, c1y := x+reach*ux-px*reach*0.7, y+reach*uy-py*reach*0.7
-	c2x, c2y := x+reach*ux+px*reach*0.7, y+reach*uy+py*reach*0.7
+	reach := r + 50
+	spread := 0.6
+	cs, sn := math.Cos(spread), math.Sin(spread)
+	sx, sy := x+r*(ux*cs-px*sn), y+r*(uy*cs-py*sn)
+	ex, ey := x+(r+2)*(ux*cs+px*sn), y+(r+2)*(uy*cs+py*sn)
+	c1x, c1y := x+reach*ux-px*reach*0.75, y+reach*uy-py*reach*0.75
+	c2x, c2y := x+reach*ux+px*reach*0.75, y+reach*uy+py*reach*0.75
 	fmt.Fprintf(w, `<path d="M%.1f,%.1f C%.1f,%.1f %.1f,%.1f %.1f,%.1f" fill="none" stroke="%s" stroke-width="1.5" marker-end="url(#arrowloop)"/>
 `, sx, sy, c1x, c1y, c2x, c2y, ex, ey, diagramLoop)
-	lx, ly := x+ux*(reach*0.78+14), y+uy*(reach*0.78+14)
-	fmt.Fprintf(w, `<text x="%.1f" y="%.1f" text-anchor="middle">%s</text>
-`, lx, ly+4, label)
+	// the label sits just outside the loop's apex, (2r·cos s + 6·reach)/8 from the centre
+	apex := (2*r*cs+6*reach)/8 + 12
+	for j, label := range labels {
+		d := apex + 18*float64(j)
+		fmt.Fprintf(w, `<text x="%.1f" y="%.1f" text-anchor="middle" dominant-baseline="middle">%s</text>
+`, x+ux*d, y+uy*d, label)
+	}
 }
 
 // toward returns the point at distance r from (x, y) in the direction of (tx, ty).
