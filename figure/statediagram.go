@@ -27,13 +27,21 @@ func StateDiagram(w io.Writer, r *states.Result, alphabet string) error {
 	const size, margin = 640.0, 40.0
 	n := len(r.States)
 	cx, cy := size/2, size/2+margin/2
-	ring := size/2 - 110
-	if n == 1 {
+	ring := size/2 - 170 // room for loops and their labels outside the ring
+	switch {
+	case n == 1:
 		ring = 0
+	case n == 2:
+		ring = 120
+	case n > 8:
+		ring = size/2 - 110
 	}
 	xs, ys, rad := make([]float64, n), make([]float64, n), make([]float64, n)
 	for i, s := range r.States {
 		a := -math.Pi/2 + 2*math.Pi*float64(i)/float64(max(n, 1))
+		if n == 2 {
+			a = math.Pi * float64(1-i) // side by side: loops go left and right
+		}
 		xs[i], ys[i] = cx+ring*math.Cos(a), cy+ring*math.Sin(a)
 		rad[i] = 24 + 26*math.Sqrt(max(s.Probability, 0))
 		if n > 8 {
@@ -131,10 +139,20 @@ func writeLoop(w io.Writer, x, y, r, cx, cy float64, labels []string) {
 `, sx, sy, c1x, c1y, c2x, c2y, ex, ey, diagramLoop)
 	// the label sits just outside the loop's apex, (2r·cos s + 6·reach)/8 from the centre
 	apex := (2*r*cs+6*reach)/8 + 12
+	anchor := "middle"
+	if ux > 0.5 {
+		anchor = "start"
+	} else if ux < -0.5 {
+		anchor = "end"
+	}
 	for j, label := range labels {
 		d := apex + 18*float64(j)
-		fmt.Fprintf(w, `<text x="%.1f" y="%.1f" text-anchor="middle" dominant-baseline="middle">%s</text>
-`, x+ux*d, y+uy*d, label)
+		dx, dy := ux*d, uy*d
+		if anchor != "middle" { // beside the loop, stacked downwards
+			dx, dy = ux*(apex-4), 18*(float64(j)-float64(len(labels)-1)/2)
+		}
+		fmt.Fprintf(w, `<text x="%.1f" y="%.1f" text-anchor="%s" dominant-baseline="middle">%s</text>
+`, x+dx, y+dy, anchor, label)
 	}
 }
 
