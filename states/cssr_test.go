@@ -102,7 +102,7 @@ func TestPeriodic(t *testing.T) {
 
 func TestGoldenMean(t *testing.T) {
 	// golden mean: 2 states, π = (2/3, 1/3), Cμ = H(1/3) = 0.9183 bit, hμ = 2/3 bit (exact)
-	res, err := Reconstruct(goldenMean(1_000_000, 1), 2, Options{})
+	res, err := Reconstruct(goldenMean(200_000, 1), 2, Options{})
 	if err == nil && res.LengthRule != LengthRule {
 		t.Errorf("length rule %q, want the automatic one", res.LengthRule)
 	}
@@ -114,7 +114,8 @@ func TestGoldenMean(t *testing.T) {
 
 func TestEvenProcess(t *testing.T) {
 	// even process: 2 recurrent states, Cμ = H(1/3) = 0.9183 bit, hμ = 2/3 bit (exact)
-	res, err := Reconstruct(even(200_000, 2), 2, Options{MaxLength: 5})
+	// 10^6 symbols with the automatic L (the "done when" size of issue 16)
+	res, err := Reconstruct(even(1_000_000, 2), 2, Options{})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -217,5 +218,26 @@ func TestWriteDOT(t *testing.T) {
 	}
 	if got := SuffixString([]uint8{0, 1, 1}, "ab"); got != "abb" {
 		t.Errorf("SuffixString = %q", got)
+	}
+}
+
+func TestCautionUnsettled(t *testing.T) {
+	// period 4 (0011): two symbols fix the phase (00, 01, 11, 10 each occur at one phase), one
+	// does not, so there are 4 states at L = 2 (exact) but not at L = 1, and the change between
+	// L − 1 and L is cautioned
+	x := make([]uint8, 10_000)
+	for i := range x {
+		x[i] = []uint8{0, 0, 1, 1}[i%4]
+	}
+	res, err := Reconstruct(x, 2, Options{MaxLength: 2})
+	if err != nil {
+		t.Fatal(err)
+	}
+	found := false
+	for _, c := range res.Cautions {
+		found = found || strings.Contains(c, "changes between L = 1 and L = 2")
+	}
+	if len(res.States) != 4 || !found {
+		t.Errorf("%d states, cautions %q; want 4 states and a caution on the change from L = 1", len(res.States), res.Cautions)
 	}
 }
