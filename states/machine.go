@@ -360,9 +360,6 @@ func (m *machine) result() *Result {
 	// guard the bounds against rounding
 	res.StatisticalComplexity = max(res.StatisticalComplexity, 0)
 	res.EntropyRate = min(max(res.EntropyRate, 0), math.Log2(float64(k)))
-	if res.Transient > 0 {
-		res.Cautions = append(res.Cautions, fmt.Sprintf("%d transient states removed", res.Transient))
-	}
 	return res
 }
 
