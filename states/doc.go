@@ -16,6 +16,22 @@
 // J. P. Crutchfield and D. P. Feldman (2003), "Regularities unseen, randomness observed",
 // Chaos 13, 25.
 //
+// Choices made here, where the paper leaves room:
+//   - a state's next-symbol distribution pools the counts of all its histories; a child that
+//     its parent's state rejects joins the other state with the largest p-value above α, or
+//     starts a new one;
+//   - the homogeneity test is the two-sample χ² test (Press et al. 2007, §14.3.2); the
+//     Kolmogorov–Smirnov alternative of the paper needs ordered symbols and is not offered;
+//   - transitions come from the histories shorter than L (their one-symbol extensions were
+//     placed by the homogenisation phase), so a history that never synchronises (1…1 in the
+//     even process) ends in a transient state instead of splitting the recurrent ones;
+//   - transient states are those outside the closed strongly connected components of the
+//     transition graph; π is the stationary distribution of the recurrent chain;
+//   - the automatic L is the largest with K^(L+1) ≤ N/50 and α·K^(L+1) ≤ 0.1 (LengthRule): every
+//     word of length L+1 could be seen 50 times, and fewer than 0.1 false splits are expected
+//     from the about K^(L+1) tests, each wrong with probability α. A stated L is refused when
+//     N < 5·K^(L+1).
+//
 // The package lives beside symbolic (block entropies of the same streams) and reads plain
 // symbol slices ([]uint8 with an alphabet size K), so it needs nothing above it.
 package states
