@@ -41,7 +41,8 @@ reports, in bits:
     n/log_K n (about 1 for random symbols, about 0 for periodic ones).
 With --permutation D it reads a numeric signal instead and reports the permutation entropy of
 order D (Bandt & Pompe 2002): the entropy of the ordinal patterns of D samples, in bits,
-normalised by log2(D!).`,
+normalised by log2(D!), and its Jensen–Shannon statistical complexity (Rosso et al. 2007) with
+the smallest and largest complexity possible at that entropy (Martin, Plastino & Rosso 2006).`,
 		Example: `  unfold symbols --alphabet 2 logistic.csv -o logistic.sym
   unfold entropy logistic.sym
   unfold entropy --json --max-length 12 logistic.sym
@@ -266,12 +267,18 @@ func (a *app) runPermutation(path string, o *entropyOptions) error {
 	if cautions == nil {
 		cautions = []string{}
 	}
+	// the complexity–entropy plane (Rosso et al. 2007) and its bounding curves at this entropy
+	pt := p.Complexity()
+	cmin, cmax := symbolic.ComplexityBounds(f, pt.Entropy)
 	if a.global.JSON {
 		return a.emitJSON("entropy", in, permutationParams{Column: s.Name, Order: o.permutation, Delay: o.delay},
 			struct {
 				Permutation *symbolic.Permutation `json:"permutation_entropy"`
+				Complexity  float64               `json:"permutation_complexity"`
+				MinCurve    float64               `json:"complexity_min"`
+				MaxCurve    float64               `json:"complexity_max"`
 				Cautions    []string              `json:"cautions"`
-			}{p, cautions})
+			}{p, pt.Complexity, cmin, cmax, cautions})
 	}
 	g := func(v float64) string { return strconv.FormatFloat(v, 'f', 4, 64) }
 	rows := [][]string{
@@ -280,6 +287,7 @@ func (a *app) runPermutation(path string, o *entropyOptions) error {
 		{"patterns", strconv.Itoa(p.Patterns)},
 		{"permutation entropy", g(p.Bits) + " bits (normalised " + g(p.Normalized) + ", " + g(p.PerSymbol) + " bits per step)"},
 		{"patterns seen", fmt.Sprintf("%d of %d (%d forbidden or unseen)", p.Observed, f, p.Forbidden)},
+		{"complexity", g(pt.Complexity) + " (Jensen–Shannon; " + g(cmin) + " … " + g(cmax) + " possible at this entropy)"},
 	}
 	if err := a.table(rows); err != nil {
 		return err

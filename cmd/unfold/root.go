@@ -49,6 +49,7 @@ an answer (the message says why), 2 bad usage or bad input (the message says wha
 		newBatchCmd(a),
 		newCompletionCmd(),
 		newDenoiseCmd(a),
+		newStatesCmd(a),
 	)
 	return root
 }
