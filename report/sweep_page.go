@@ -40,7 +40,9 @@ table { border-collapse: collapse; width: 100%; margin: .4rem 0 .8rem; font-size
 th, td { text-align: left; padding: .2rem .4rem; border-bottom: 1px solid #e4e4e4; vertical-align: top; }
 th { font-weight: 600; color: #333; }
 td.num { text-align: right; font-variant-numeric: tabular-nums; white-space: nowrap; }
-td.path { overflow-wrap: anywhere; }
+td.path { overflow-wrap: anywhere; min-width: 12rem; }
+td.path small { color: #666; }
+.wide { overflow-x: auto; }
 code { font-family: ui-monospace, "DejaVu Sans Mono", monospace; font-size: .86em; }
 figure { margin: .8rem 0 1.4rem; break-inside: avoid; page-break-inside: avoid; }
 figure svg { display: block; width: 100%; height: auto; }
@@ -68,10 +70,10 @@ footer { margin-top: 2.5rem; color: #666; font-size: .8rem; border-top: 1px soli
 {{range .Figures}}<figure id="fig-{{.Name}}">{{.SVG}}<figcaption>{{.Caption}}</figcaption></figure>
 {{end}}
 <h2>Records</h2>
-<table>
+<div class="wide"><table>
 <tr><th>{{.Param}}</th><th>verdict</th><th>conf.</th><th>λ1 [interval]</th><th>D2 [interval]</th><th>hμ</th><th>Cμ</th><th>lines</th><th>Δt</th><th>status</th><th>record</th></tr>
 {{range .Rows}}<tr><td class="num">{{.Value}}</td><td>{{.Regime}}</td><td class="num">{{.Confidence}}</td><td class="num">{{.Lambda}}</td><td class="num">{{.D2}}</td><td class="num">{{.H}}</td><td class="num">{{.C}}</td><td>{{.Lines}}</td><td class="num">{{.Dt}}</td><td>{{.Status}}</td><td class="path"><code>{{.Path}}</code>{{if .Note}}<br><small>{{.Note}}</small>{{end}}</td></tr>
-{{end}}</table>
+{{end}}</table></div>
 <p>Every number is in <code>sweep.csv</code> beside this page, one row per record, sorted by {{.Param}}.</p>
 <footer>Written by unfold {{.Version}}. The page is self-contained: it fetches nothing.</footer>
 </body>
@@ -236,7 +238,7 @@ func WriteSweepPage(w io.Writer, parameter string, rows []SweepRow, opt SweepPag
 			Lambda: withInterval(r.LambdaMax, r.LambdaLo, r.LambdaHi), D2: withInterval(r.D2, r.D2Lo, r.D2Hi),
 			H: fmt3(r.EntropyRate), C: fmt3(r.Complexity), Status: r.Status, Path: r.Path, Note: r.Error}
 		if len(r.Frequencies) > 0 {
-			pr.Lines = fmt.Sprintf("%d, %s", len(r.Frequencies), r.LineKind)
+			pr.Lines = fmt.Sprintf("%d (%s)", len(r.Frequencies), r.LineKind)
 		} else if r.LineKind != "" {
 			pr.Lines = r.LineKind
 		}
@@ -248,6 +250,9 @@ func WriteSweepPage(w io.Writer, parameter string, rows []SweepRow, opt SweepPag
 		}
 		if r.RecordReadMessage != "" {
 			pr.Note = strings.TrimPrefix(pr.Note+"; ", "; ") + "record not read again: " + r.RecordReadMessage
+		}
+		if rs := []rune(pr.Note); len(rs) > 200 {
+			pr.Note = string(rs[:200]) + " … (the whole message is in the record's result.json)"
 		}
 		d.Rows = append(d.Rows, pr)
 	}

@@ -25,7 +25,8 @@ func fmtParam(v float64) string { return strconv.FormatFloat(v, 'g', -1, 64) }
 // the last value of one run and the first value of the next: it is located only to within the
 // spacing of the sweep. The sentences after it note where the largest Lyapunov exponent's
 // interval first lies above zero, where the spectral lines need a second (or third)
-// incommensurate frequency, and where the spectrum becomes broadband after having lines.
+// incommensurate frequency in a record judged quasiperiodic, and where the spectrum becomes
+// broadband after having lines.
 func Transitions(parameter string, rows []SweepRow) []string {
 	var runs []verdictRun
 	for _, r := range rows {
@@ -99,7 +100,10 @@ func Transitions(parameter string, rows []SweepRow) []string {
 		switch r.LineKind {
 		case "periodic", "quasiperiodic":
 			g := len(r.Fundamentals)
-			if r.LineKind == "quasiperiodic" && g > prevGen && g >= 2 {
+			// Incommensurate lines are noted where the verdict agrees (or is missing): inside
+			// a chaotic band the lines of the band's period may look incommensurate.
+			torus := r.Regime == "quasiperiodic" || r.Regime == ""
+			if r.LineKind == "quasiperiodic" && torus && g > prevGen && g >= 2 {
 				out = append(out, fmt.Sprintf("%d incommensurate frequencies in the spectral lines from %s = %s (quasiperiodic motion, a torus).", g, p, fmtParam(r.Value)))
 			}
 			prevGen, hadLines, broad = g, true, false
