@@ -339,3 +339,47 @@ func TestSweepPage(t *testing.T) {
 		t.Error("no Okabe–Ito colour in the key")
 	}
 }
+
+func TestBifurcationPoints(t *testing.T) {
+	// A finely sampled sine (50 samples per period, phase off the grid) is a flow: its maxima,
+	// refined by the parabola through three samples, are the amplitude 1 (exact: max sin = 1;
+	// the parabola's error is of order (2π/50)⁴/24·… < 1e-3).
+	x := make([]float64, 1000)
+	for i := range x {
+		x[i] = math.Sin(2*math.Pi*float64(i)/50 + 0.3)
+	}
+	pts, maxima := BifurcationPoints(x, 5)
+	if !maxima || len(pts) != 5 {
+		t.Fatalf("sine: maxima %v, %d points; want 5 maxima", maxima, len(pts))
+	}
+	for _, v := range pts {
+		if math.Abs(v-1) > 1e-3 {
+			t.Errorf("sine maximum %v, want 1", v)
+		}
+	}
+	// A period-2 map orbit (lag-1 autocorrelation −1) is a map: its last values are kept.
+	y := make([]float64, 300)
+	for i := range y {
+		y[i] = 0.3 + 0.4*float64(i%2)
+	}
+	pts, maxima = BifurcationPoints(y, 0)
+	if maxima || len(pts) != 200 || pts[199] != y[299] {
+		t.Errorf("period-2 orbit: maxima %v, %d points", maxima, len(pts))
+	}
+}
+
+func TestSweepRowsUnreadableResult(t *testing.T) {
+	dir := t.TempDir()
+	l := &SweepList{Parameter: "r", Entries: []SweepEntry{{Path: "/nowhere/a.csv", Value: 2}, {Path: "/nowhere/b.csv", Value: 1}}}
+	folder := filepath.Join(dir, FolderName("/nowhere/a.csv"))
+	if err := os.MkdirAll(folder, 0o755); err != nil {
+		t.Fatal(err)
+	}
+	if err := os.WriteFile(filepath.Join(folder, "result.json"), []byte("{broken"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	rows := SweepRows(dir, l, SweepOptions{})
+	if rows[0].Value != 1 || rows[0].Status != "missing" || rows[1].Status != StatusError || !strings.Contains(rows[1].Error, "result.json") {
+		t.Errorf("rows %+v", rows)
+	}
+}
