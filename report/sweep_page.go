@@ -71,8 +71,8 @@ footer { margin-top: 2.5rem; color: #666; font-size: .8rem; border-top: 1px soli
 {{end}}
 <h2>Records</h2>
 <div class="wide"><table>
-<tr><th>{{.Param}}</th><th>verdict</th><th>conf.</th><th>λ1 [interval]</th><th>D2 [interval]</th><th>hμ</th><th>Cμ</th><th>lines</th><th>Δt</th><th>status</th><th>record</th></tr>
-{{range .Rows}}<tr><td class="num">{{.Value}}</td><td>{{.Regime}}</td><td class="num">{{.Confidence}}</td><td class="num">{{.Lambda}}</td><td class="num">{{.D2}}</td><td class="num">{{.H}}</td><td class="num">{{.C}}</td><td>{{.Lines}}</td><td class="num">{{.Dt}}</td><td>{{.Status}}</td><td class="path"><code>{{.Path}}</code>{{if .Note}}<br><small>{{.Note}}</small>{{end}}</td></tr>
+<tr><th>{{.Param}}</th><th>verdict</th><th>conf.</th><th>λ1 [interval]</th><th>D2 [interval]</th><th>hμ</th><th>Cμ</th><th>lines</th><th>Δt</th><th>status</th>{{range .Labels}}<th>{{.}}</th>{{end}}<th>record</th></tr>
+{{range .Rows}}<tr><td class="num">{{.Value}}</td><td>{{.Regime}}</td><td class="num">{{.Confidence}}</td><td class="num">{{.Lambda}}</td><td class="num">{{.D2}}</td><td class="num">{{.H}}</td><td class="num">{{.C}}</td><td>{{.Lines}}</td><td class="num">{{.Dt}}</td><td>{{.Status}}</td>{{range .Labels}}<td>{{.}}</td>{{end}}<td class="path"><code>{{.Path}}</code>{{if .Note}}<br><small>{{.Note}}</small>{{end}}</td></tr>
 {{end}}</table></div>
 <p>Every number is in <code>sweep.csv</code> beside this page, one row per record, sorted by {{.Param}}.</p>
 <footer>Written by unfold {{.Version}}. The page is self-contained: it fetches nothing.</footer>
@@ -87,11 +87,13 @@ type sweepKey struct {
 
 type sweepPageRow struct {
 	Value, Regime, Confidence, Lambda, D2, H, C, Lines, Dt, Status, Path, Note string
+	Labels                                                                     []string
 }
 
 type sweepPageData struct {
 	Param, From, To, Counts, Version string
 	Count                            int
+	Labels                           []string
 	Transitions                      []string
 	Units                            [][2]string
 	Key                              []sweepKey
@@ -137,15 +139,20 @@ func withInterval(v, lo, hi float64) string {
 	return s
 }
 
-// WriteSweepPage writes the sweep page for rows sorted by the parameter.
+// WriteSweepPage writes the sweep page for rows sorted by the parameter (without the
+// label columns; WriteSweep shows them).
 func WriteSweepPage(w io.Writer, parameter string, rows []SweepRow, opt SweepPageOptions) error {
+	return writeSweepPage(w, parameter, nil, rows, opt)
+}
+
+func writeSweepPage(w io.Writer, parameter string, labels []string, rows []SweepRow, opt SweepPageOptions) error {
 	timeUnit, sameT := common(rows, func(r SweepRow) string { return r.TimeUnit })
 	unit, sameU := common(rows, func(r SweepRow) string { return r.Unit })
 	perTime := "time unit"
 	if timeUnit != "" && sameT {
 		perTime = timeUnit
 	}
-	d := sweepPageData{Param: parameter, Count: len(rows), Version: opt.Version,
+	d := sweepPageData{Param: parameter, Count: len(rows), Version: opt.Version, Labels: labels,
 		Transitions: Transitions(parameter, rows)}
 	if len(rows) > 0 {
 		d.From, d.To = fmtParam(rows[0].Value), fmtParam(rows[len(rows)-1].Value)
@@ -237,6 +244,13 @@ func WriteSweepPage(w io.Writer, parameter string, rows []SweepRow, opt SweepPag
 		pr := sweepPageRow{Value: fmtParam(r.Value), Regime: r.Regime, Confidence: fmt3(r.Confidence),
 			Lambda: withInterval(r.LambdaMax, r.LambdaLo, r.LambdaHi), D2: withInterval(r.D2, r.D2Lo, r.D2Hi),
 			H: fmt3(r.EntropyRate), C: fmt3(r.Complexity), Status: r.Status, Path: r.Path, Note: r.Error}
+		for i := range labels {
+			if i < len(r.Labels) {
+				pr.Labels = append(pr.Labels, r.Labels[i])
+			} else {
+				pr.Labels = append(pr.Labels, "")
+			}
+		}
 		if len(r.Frequencies) > 0 {
 			pr.Lines = fmt.Sprintf("%d (%s)", len(r.Frequencies), r.LineKind)
 		} else if r.LineKind != "" {
@@ -285,7 +299,7 @@ func WriteSweep(dir string, list *SweepList, rows []SweepRow, opt SweepPageOptio
 		return err
 	}
 	var h bytes.Buffer
-	if err := WriteSweepPage(&h, list.Parameter, rows, opt); err != nil {
+	if err := writeSweepPage(&h, list.Parameter, list.Labels, rows, opt); err != nil {
 		return err
 	}
 	return writeFileAtomic(filepath.Join(dir, "sweep.html"), h.Bytes())

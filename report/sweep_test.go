@@ -326,7 +326,7 @@ func TestSweepPage(t *testing.T) {
 			t.Errorf("SVG %d uses a serif face", i+1)
 		}
 	}
-	for _, want := range []string{"support expert judgement", "chaotic from r = 4", "nats", "<script"} {
+	for _, want := range []string{"support expert judgement", "chaotic from r = 4", "nats", "<th>batch</th>", "<script"} {
 		has := strings.Contains(page, want)
 		if want == "<script" && has {
 			t.Error("the page carries a script")
