@@ -74,6 +74,7 @@ func newSimulateCmd(a *app) *cobra.Command {
 			o.scalars[p.name] = f.Float64(p.name, 0, p.usage)
 		}
 	}
+	bindSimulateSweep(a, cmd)
 	return cmd
 }
 
