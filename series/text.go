@@ -373,6 +373,7 @@ func columnList(names []string, ncol int) string {
 // resolveColumn finds a column by name (exact, then ignoring case and surrounding spaces) or by
 // 1-based index; it returns −1 when there is none.
 func resolveColumn(spec string, names []string, ncol int) int {
+	spec = CleanText(spec)
 	for j, n := range names {
 		if n == spec {
 			return j
@@ -504,7 +505,7 @@ func readText(r io.Reader, path string, opt ReadOptions) (*Series, []string, err
 	if headerLine > 0 {
 		names = make([]string, len(fields))
 		for j, f := range fields {
-			names[j] = strings.TrimSpace(fieldText(line, f))
+			names[j] = CleanText(fieldText(line, f))
 		}
 		line, err = nextContent()
 		if err == io.EOF {
