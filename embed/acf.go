@@ -33,15 +33,25 @@ func AutocorrelationFFT(x []float64, maxLag int) (*Autocorrelation, error) {
 	if maxLag < 0 || maxLag > n-1 {
 		maxLag = n - 1
 	}
+	// R is scale-free: work on x·2^−e with the largest magnitude near 1, so that the squares
+	// of values near ±1e308 do not overflow and those of denormal values do not vanish.
+	var big float64
+	for _, v := range x {
+		big = math.Max(big, math.Abs(v))
+	}
+	e := 0
+	if big > 0 && !math.IsInf(big, 0) {
+		_, e = math.Frexp(big)
+	}
 	var mean float64
 	for _, v := range x {
-		mean += v
+		mean += math.Ldexp(v, -e)
 	}
 	mean /= float64(n)
 	nfft := smoothLength(2 * n)
 	buf := make([]float64, nfft)
 	for i, v := range x {
-		buf[i] = v - mean
+		buf[i] = math.Ldexp(v, -e) - mean
 	}
 	fft := fourier.NewFFT(nfft)
 	c := fft.Coefficients(nil, buf)

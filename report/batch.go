@@ -498,7 +498,9 @@ func replaceDir(tmp, dst string) error {
 // CleanLeftovers tidies the batch folder dir before a run that started at start: an old
 // result moved aside (.old-NAME-…) whose folder NAME is missing — a kill struck between the
 // two renames of a replacement — is put back; other .old-* and .tmp-* entries last changed
-// before start are removed (those of a batch running at the same time are newer and kept).
+// before start are removed (those of a batch running at the same time are newer and kept;
+// one written by a batch at the very moment is moved away whole, and that batch writes it
+// again).
 func CleanLeftovers(dir string, start time.Time) error {
 	ents, err := os.ReadDir(dir)
 	if err != nil {
@@ -518,9 +520,15 @@ func CleanLeftovers(dir string, start time.Time) error {
 		if err != nil || !fi.ModTime().Before(start) {
 			continue
 		}
-		if err := os.RemoveAll(filepath.Join(dir, n)); err != nil {
-			return fmt.Errorf("batch: removing the leftover %s: %w", n, err)
+		// Move it out of the way in one rename first: a batch still writing into it then
+		// fails to rename it into place and writes again, instead of publishing a folder
+		// half removed. Removal is best effort; what stays is cleaned next time.
+		trash, err := os.MkdirTemp(dir, tmpPrefix+"trash-")
+		if err != nil {
+			return fmt.Errorf("batch: %w", err)
 		}
+		_ = os.Rename(filepath.Join(dir, n), filepath.Join(trash, n))
+		os.RemoveAll(trash)
 	}
 	return nil
 }

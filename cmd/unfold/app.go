@@ -17,6 +17,7 @@ import (
 	"github.com/schollz/progressbar/v3"
 	"golang.org/x/term"
 
+	"unfold/internal/safejson"
 	"unfold/series"
 )
 
@@ -244,14 +245,14 @@ func buildJSON(command string, in *inputInfo, params any, body any) ([]byte, err
 	if params == nil {
 		params = struct{}{}
 	}
-	b, err := json.Marshal(params)
+	b, _, err := safejson.Marshal(params) // non-finite numbers as null; cautions: see internal/safejson
 	if err != nil {
 		return nil, fmt.Errorf("%s: encoding JSON parameters: %w", command, err)
 	}
 	buf.WriteString(`,"parameters":`)
 	buf.Write(b)
 	if body != nil {
-		b, err := json.Marshal(body)
+		b, _, err := safejson.Marshal(body)
 		if err != nil {
 			return nil, fmt.Errorf("%s: encoding JSON result: %w", command, err)
 		}
