@@ -132,6 +132,14 @@ func scaledMeanStd(x []float64, e int) (mean, std float64) {
 	return m, math.Sqrt(ss / float64(len(x)))
 }
 
+// ScaleExponent returns e such that x·2^−e has its largest magnitude in [0.5, 1) (0 when x is
+// all zeros or holds a non-finite value). Multiplying by a power of two is exact for normal
+// numbers, so an analysis can run on x·2^−e — no overflow for values near ±1.8e308, no
+// underflow for denormal values — and state its results in the input's units by multiplying
+// quantities in signal units by 2^e (math.Ldexp). Scale-free results (lags, dimensions,
+// exponents per time, D2) are unchanged.
+func ScaleExponent(x []float64) int { return scaleExp(x) }
+
 // scaleExp returns the exponent e with 2^e just above the largest magnitude of x (0 when x is
 // all zeros or holds a non-finite value).
 func scaleExp(x []float64) int {

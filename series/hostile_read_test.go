@@ -180,3 +180,19 @@ func TestReadTextNoAllocPerRow(t *testing.T) {
 		t.Errorf("allocations grow with rows: %v for 10 rows, %v for 59", a, b)
 	}
 }
+
+// TestSeriesCarriesNotes: the notes travel with the record (through preprocessing), so that
+// inspect can say that decimal commas were read.
+func TestSeriesCarriesNotes(t *testing.T) {
+	s, err := Read(strings.NewReader("t;x\n0;0,5\n1;1,5\n2;2,5\n"), "h.csv", ReadOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	p, err := (Prep{From: "1"}).Apply(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !hasNote(p.Notes, `decimal commas: numbers are written like "0,5" (read as 0.5)`) {
+		t.Errorf("notes %q", p.Notes)
+	}
+}

@@ -27,6 +27,12 @@ type Series struct {
 	TimeUnit string
 	// GapsFilled counts NaN/Inf/empty cells that were dropped or interpolated on reading.
 	GapsFilled int
+	// Notes are the automatic choices the reader made, in plain words, for `inspect` and the
+	// report to show: the delimiter, decimal commas ("decimal commas: numbers are written like
+	// "0,0047" …"), the time column (ISO-8601 date-times and the instant times count from),
+	// dt, the signal column chosen among several ("3 numeric columns: using "x" …; choose with
+	// --column") and gaps filled. The same list is Source.Notes.
+	Notes []string
 }
 
 // Len returns the number of samples.
