@@ -127,17 +127,32 @@ func CanonicalPath(path string) string {
 	return abs
 }
 
-// IsResultFolder reports whether dir is a folder unfold wrote: a batch folder (it holds
-// summary.csv or the batch's .inputs record) or one input's result folder (it holds a
-// complete result.json).
+// IsResultFolder reports whether dir is a folder unfold wrote: a batch folder (it holds a
+// summary.csv with the batch's header, or the batch's .inputs record) or one input's result
+// folder (it holds a complete result.json). A user's own summary.csv does not count.
 func IsResultFolder(dir string) bool {
-	for _, n := range []string{"summary.csv", inputsDir} {
-		if _, err := os.Stat(filepath.Join(dir, n)); err == nil {
-			return true
-		}
+	if _, err := os.Stat(filepath.Join(dir, inputsDir)); err == nil {
+		return true
+	}
+	if isSummary(filepath.Join(dir, "summary.csv")) {
+		return true
 	}
 	_, err := readResultHead(filepath.Join(dir, "result.json"))
 	return err == nil
+}
+
+// isSummary reports whether path is a summary.csv written by a batch (its first line is
+// SummaryHeader), not a user's file of the same name.
+func isSummary(path string) bool {
+	f, err := os.Open(path)
+	if err != nil {
+		return false
+	}
+	defer f.Close()
+	head := make([]byte, 256)
+	n, _ := io.ReadFull(f, head)
+	line, _, _ := strings.Cut(string(head[:n]), "\n")
+	return strings.TrimSuffix(line, "\r") == strings.Join(SummaryHeader(), ",")
 }
 
 // inResultFolder reports whether the file path lies in a result folder: its folder, or one of

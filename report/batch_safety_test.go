@@ -237,3 +237,14 @@ func TestReplaceDirSwaps(t *testing.T) {
 		t.Errorf("entries %d, result %q, old file present %v", len(ents), b, oldOnly == nil)
 	}
 }
+
+// TestUserSummaryIsAnInput: a data folder holding the user's own summary.csv is not taken for
+// a result folder.
+func TestUserSummaryIsAnInput(t *testing.T) {
+	d := t.TempDir()
+	writeInputs(t, d, "a.csv", "summary.csv")
+	paths, err := ListInputs([]string{d}, nil, "")
+	if err != nil || len(paths) != 2 {
+		t.Errorf("inputs %q %v, want a.csv and summary.csv", paths, err)
+	}
+}
