@@ -314,8 +314,14 @@ func (c *DimChoice) decide() {
 		if c.FNNDim > 0 {
 			c.Reason += fmt.Sprintf("; the false-neighbour fraction falls below %.3g later, at m = %d", c.Threshold, c.FNNDim)
 		} else {
-			c.Reason += fmt.Sprintf("; the false-neighbour fraction never falls below %.3g (lowest %.4f)", c.Threshold, c.minFNN())
+			if lo := c.minFNN(); math.IsInf(lo, 1) {
+				c.Reason += "; the false-neighbour fraction cannot be read (every nearest neighbour is an exact duplicate)"
+			} else {
+				c.Reason += fmt.Sprintf("; the false-neighbour fraction never falls below %.3g (lowest %.4f)", c.Threshold, lo)
+			}
 		}
+	case math.IsInf(c.minFNN(), 1):
+		c.Reason = fmt.Sprintf("no dimension up to %d: in every dimension each point's nearest neighbour is an exact duplicate (distance 0), as in a signal of a few repeated values such as a square wave or a few-level signal, so neither the false-neighbour fraction nor Cao's E1 can be read", c.MaxDim)
 	default:
 		c.Reason = fmt.Sprintf("no dimension up to %d: the false-neighbour fraction never falls below %.3g (lowest %.4f) and Cao's E1 does not saturate", c.MaxDim, c.Threshold, c.minFNN())
 	}

@@ -3,6 +3,7 @@ package embed
 import (
 	"math"
 	"strconv"
+	"strings"
 	"testing"
 
 	"unfold/neighbors"
@@ -210,5 +211,22 @@ func TestDimThreadsDeterministic(t *testing.T) {
 		if a.FNN[m] != b.FNN[m] || a.E[m] != b.E[m] || a.EStar[m] != b.EStar[m] {
 			t.Errorf("m = %d: 1 thread %+v, 3 threads %+v", m+1, a.FNN[m], b.FNN[m])
 		}
+	}
+}
+
+// TestChooseDimensionDuplicatesOnly: a square wave has only exact-duplicate nearest
+// neighbours, so no fraction exists; the reason says so instead of "lowest +Inf", and the
+// undefined E1/E2 are NaN (written as null), never an impossible number.
+func TestChooseDimensionDuplicatesOnly(t *testing.T) {
+	x := make([]float64, 2000)
+	for i := range x {
+		x[i] = float64(1 - 2*(i/10%2))
+	}
+	c, err := ChooseDimension(x, DimOptions{Lag: 5, MaxDim: 6, Theiler: 1, Threads: 2})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if c.Dimension != 0 || strings.Contains(c.Reason, "Inf") || !strings.Contains(c.Reason, "exact duplicate") {
+		t.Errorf("dimension %d, reason %q", c.Dimension, c.Reason)
 	}
 }

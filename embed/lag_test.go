@@ -61,3 +61,33 @@ func TestChooseLagOneOverE(t *testing.T) {
 		t.Errorf("lag %d is not the first with I < I(0)/e: %v", c.Lag, I[:c.Lag+1])
 	}
 }
+
+// TestAutocorrelationExtremeMagnitudes: R is scale-free and the record is scaled by a power
+// of two before the transform, so records of the same small integers times 2^−1060 (denormal)
+// or 2^1000 (near 1e301) give the R of the unit-scale record exactly (arithmetic), not "the
+// record is constant" or NaN.
+func TestAutocorrelationExtremeMagnitudes(t *testing.T) {
+	x := make([]float64, 300)
+	for i := range x {
+		x[i] = float64((i*i)%11) - 5
+	}
+	ref, err := AutocorrelationFFT(x, 40)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, k := range []int{-1060, 1000} {
+		y := make([]float64, len(x))
+		for i, v := range x {
+			y[i] = math.Ldexp(v, k)
+		}
+		a, err := AutocorrelationFFT(y, 40)
+		if err != nil {
+			t.Fatalf("2^%d: %v", k, err)
+		}
+		for j := range ref.R {
+			if a.R[j] != ref.R[j] {
+				t.Fatalf("2^%d: R[%d] = %v, want %v", k, j, a.R[j], ref.R[j])
+			}
+		}
+	}
+}

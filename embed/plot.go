@@ -74,10 +74,30 @@ func colorMark() color.Color   { return color.RGBA{R: 0xb2, G: 0x18, B: 0x2b, A:
 func colorGuide() color.Color  { return color.RGBA{R: 0x80, G: 0x80, B: 0x80, A: 0xff} }
 
 // WriteFigure draws the plots as a grid (rows of equal length) on a canvas of the given size
-// and writes it to w as "png" (110 dpi) or "svg".
-func WriteFigure(w io.Writer, format string, width, height vg.Length, rows [][]*plot.Plot) error {
+// and writes it to w as "png" (110 dpi) or "svg". A panic of the plotting library (an axis it
+// cannot draw) is returned as an error: a figure that cannot be drawn never stops a run.
+func WriteFigure(w io.Writer, format string, width, height vg.Length, rows [][]*plot.Plot) (err error) {
+	defer func() {
+		if p := recover(); p != nil {
+			err = fmt.Errorf("figure: could not be drawn: %v", p)
+		}
+	}()
 	if len(rows) == 0 || len(rows[0]) == 0 {
 		return fmt.Errorf("figure: nothing to draw")
+	}
+	for _, r := range rows {
+		for _, p := range r {
+			if p == nil {
+				continue
+			}
+			// The tick labelling of gonum/plot does not end on a range whose width overflows
+			// (values near ±1.8e308); refuse it instead. An axis without data has Min > Max.
+			for _, ax := range []*plot.Axis{&p.X, &p.Y} {
+				if w := ax.Max - ax.Min; ax.Min <= ax.Max && (math.IsInf(w, 0) || math.IsNaN(w)) { // Min > Max: no data
+					return fmt.Errorf("figure: an axis from %g to %g spans more than a float64 can hold; rescale the record (for example --standardize)", ax.Min, ax.Max)
+				}
+			}
+		}
 	}
 	var c vg.CanvasWriterTo
 	switch strings.ToLower(format) {
@@ -99,8 +119,7 @@ func WriteFigure(w io.Writer, format string, width, height vg.Length, rows [][]*
 			}
 		}
 	}
-	_, err := c.WriteTo(w)
-	if err != nil {
+	if _, err := c.WriteTo(w); err != nil {
 		return fmt.Errorf("figure: %w", err)
 	}
 	return nil

@@ -7,6 +7,7 @@ import (
 	"testing"
 
 	"gonum.org/v1/plot"
+	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/vg"
 )
 
@@ -69,5 +70,25 @@ func TestFigures(t *testing.T) {
 	}
 	if err := WriteFigure(&bytes.Buffer{}, "gif", vg.Inch, vg.Inch, lagRows); err == nil {
 		t.Error("gif: want an error")
+	}
+}
+
+// TestWriteFigureRefusesWhatItCannotDraw: an axis spanning more than a float64 (values near
+// ±1.5e308) and a log axis without positive data are errors, not a hang or a panic.
+func TestWriteFigureRefusesWhatItCannotDraw(t *testing.T) {
+	huge := plot.New()
+	l, err := plotter.NewLine(plotter.XYs{{X: 0, Y: -1.5e308}, {X: 1, Y: 1.5e308}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	huge.Add(l)
+	logEmpty := plot.New()
+	logEmpty.Y.Scale = plot.LogScale{}
+	logEmpty.Y.Tick.Marker = plot.LogTicks{}
+	for name, p := range map[string]*plot.Plot{"huge": huge, "empty log axis": logEmpty} {
+		var b bytes.Buffer
+		if err := WriteFigure(&b, "svg", 4*vg.Inch, 3*vg.Inch, [][]*plot.Plot{{p}}); err == nil || !strings.HasPrefix(err.Error(), "figure: ") {
+			t.Errorf("%s: error %v", name, err)
+		}
 	}
 }

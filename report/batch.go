@@ -25,9 +25,11 @@ import (
 // ListInputs returns the inputs named by args and by the lines of list (nil for none): each
 // argument is a file, a directory (walked recursively for regular files whose names do not
 // start with a dot) or a glob pattern (filepath.Match syntax). In list, blank lines and lines
-// starting with # are ignored. The paths are cleaned, deduplicated and sorted, which is the
-// order --shard slices. A path that does not exist or a pattern that matches nothing is an
-// error that names it.
+// starting with # are ignored. Each path is made absolute with its symbolic links resolved
+// (CanonicalPath), so one file named three ways is one input; the paths are deduplicated and
+// sorted, which is the order --shard slices. Result folders of unfold (IsResultFolder) and
+// the files inside them are never inputs. A path that does not exist or a pattern that
+// matches nothing is an error that names it.
 func ListInputs(args []string, list io.Reader, listName string) ([]string, error) {
 	var names []string
 	if list != nil {
@@ -50,7 +52,10 @@ func ListInputs(args []string, list io.Reader, listName string) ([]string, error
 	seen := map[string]bool{}
 	var out []string
 	add := func(p string) {
-		p = filepath.Clean(p)
+		if inResultFolder(p) {
+			return
+		}
+		p = CanonicalPath(p)
 		if !seen[p] {
 			seen[p] = true
 			out = append(out, p)
@@ -69,6 +74,9 @@ func ListInputs(args []string, list io.Reader, listName string) ([]string, error
 						return filepath.SkipDir
 					}
 					return nil
+				}
+				if d.IsDir() && IsResultFolder(p) {
+					return filepath.SkipDir
 				}
 				if d.Type().IsRegular() {
 					add(p)
@@ -102,6 +110,72 @@ func ListInputs(args []string, list io.Reader, listName string) ([]string, error
 	}
 	sort.Strings(out)
 	return out, nil
+}
+
+// CanonicalPath returns the absolute form of path with every symbolic link resolved, which
+// identifies an input however it is spelled (relative, absolute, ./d/../d/x.csv, through a
+// link). When the links cannot be resolved (the file is missing) it returns the cleaned
+// absolute path.
+func CanonicalPath(path string) string {
+	abs, err := filepath.Abs(path)
+	if err != nil {
+		return filepath.Clean(path)
+	}
+	if r, err := filepath.EvalSymlinks(abs); err == nil {
+		return r
+	}
+	return abs
+}
+
+// IsResultFolder reports whether dir is a folder unfold wrote: a batch folder (it holds a
+// summary.csv with the batch's header, or the batch's .inputs record) or one input's result
+// folder (it holds a complete result.json). A user's own summary.csv does not count.
+func IsResultFolder(dir string) bool {
+	if _, err := os.Stat(filepath.Join(dir, inputsDir)); err == nil {
+		return true
+	}
+	if isSummary(filepath.Join(dir, "summary.csv")) {
+		return true
+	}
+	_, err := readResultHead(filepath.Join(dir, "result.json"))
+	return err == nil
+}
+
+// isSummary reports whether path is a summary.csv written by a batch (its first line is
+// SummaryHeader), not a user's file of the same name.
+func isSummary(path string) bool {
+	f, err := os.Open(path)
+	if err != nil {
+		return false
+	}
+	defer f.Close()
+	head := make([]byte, 256)
+	n, _ := io.ReadFull(f, head)
+	line, _, _ := strings.Cut(string(head[:n]), "\n")
+	return strings.TrimSuffix(line, "\r") == strings.Join(SummaryHeader(), ",")
+}
+
+// inResultFolder reports whether the file path lies in a result folder: its folder, or one of
+// the two above it (figures/ of a result inside a batch folder).
+func inResultFolder(path string) bool {
+	d := filepath.Dir(CanonicalPath(path))
+	for i := 0; i < 3; i++ {
+		if IsResultFolder(d) {
+			return true
+		}
+		up := filepath.Dir(d)
+		if up == d {
+			break
+		}
+		d = up
+	}
+	return false
+}
+
+// within reports whether path lies inside dir (both canonical).
+func within(path, dir string) bool {
+	rel, err := filepath.Rel(dir, path)
+	return err == nil && rel != ".." && !strings.HasPrefix(rel, ".."+string(filepath.Separator)) && !filepath.IsAbs(rel)
 }
 
 // ParseShard reads "K/N" (1 ≤ K ≤ N; K is 1-based).
@@ -190,21 +264,51 @@ type BatchStats struct {
 }
 
 // RunBatch analyses every path with opt.Jobs workers, writes each result into its folder
-// (built in a temporary folder and renamed into place, so a kill leaves no half-written
-// result), skips inputs whose folder holds a complete result with the same input SHA-256, and
-// finally rebuilds DIR/summary.csv from every result folder present (as Merge does).
+// (built complete in a temporary sibling folder and put in place by one rename, so a kill
+// leaves either the old or the new result, never a mix), skips inputs whose folder holds a
+// complete result with the same input SHA-256, and finally rebuilds DIR/summary.csv from
+// every result folder present (as Merge does).
+//
+// Inputs are identified by CanonicalPath (one file named several ways is analysed once);
+// paths inside opt.Dir or inside any unfold result folder are left out with a log line.
+// Before the work starts, leftovers of killed runs older than this run are cleaned
+// (CleanLeftovers). Several batches may run at once on one folder: each replacement retries
+// when another batch replaced the same folder in between.
 func RunBatch(paths []string, opt BatchOptions) (BatchStats, error) {
-	st := BatchStats{Inputs: len(paths)}
+	start := time.Now()
 	if err := os.MkdirAll(opt.Dir, 0o755); err != nil {
-		return st, fmt.Errorf("batch: %w", err)
+		return BatchStats{}, fmt.Errorf("batch: %w", err)
 	}
-	jobs := max(opt.Jobs, 1)
-	var mu sync.Mutex
 	logf := func(format string, args ...any) {
 		if opt.Log != nil {
 			opt.Log(fmt.Sprintf(format, args...))
 		}
 	}
+	opt.Dir = CanonicalPath(opt.Dir)
+	seen := map[string]bool{}
+	var keep []string
+	for _, p := range paths {
+		c := CanonicalPath(p)
+		switch {
+		case seen[c]:
+			continue
+		case within(c, opt.Dir):
+			logf("batch: %s left out: it is inside the output folder %s", p, opt.Dir)
+			continue
+		case inResultFolder(c):
+			logf("batch: %s left out: it is inside a result folder of unfold", p)
+			continue
+		}
+		seen[c] = true
+		keep = append(keep, c)
+	}
+	paths = keep
+	st := BatchStats{Inputs: len(paths)}
+	if err := CleanLeftovers(opt.Dir, start); err != nil {
+		return st, err
+	}
+	jobs := max(opt.Jobs, 1)
+	var mu sync.Mutex
 	work := make(chan int)
 	var wg sync.WaitGroup
 	var firstErr error
@@ -265,7 +369,8 @@ func RunBatch(paths []string, opt BatchOptions) (BatchStats, error) {
 // runOne analyses one input unless its result is complete; it returns the status written
 // ("skipped" when nothing was done) and a short message.
 func runOne(path string, opt BatchOptions) (string, string, error) {
-	folder := filepath.Join(opt.Dir, FolderName(path))
+	name := FolderName(path)
+	folder := filepath.Join(opt.Dir, name)
 	sum, herr := FileSHA256(path)
 	if herr == nil {
 		if prev, err := readResultHead(filepath.Join(folder, "result.json")); err == nil &&
@@ -273,36 +378,57 @@ func runOne(path string, opt BatchOptions) (string, string, error) {
 			return "skipped", "", nil
 		}
 	}
-	tmp, err := os.MkdirTemp(opt.Dir, ".tmp-"+FolderName(path)+"-")
-	if err != nil {
-		return "", "", fmt.Errorf("batch: %w", err)
+	if err := recordInput(opt.Dir, name, path); err != nil {
+		return "", "", err
 	}
-	defer os.RemoveAll(tmp)
 	var res *Result
 	aerr := herr
 	if aerr == nil {
 		res, aerr = analyze(opt.Analyze, path)
 	}
 	status, msg := StatusError, ""
+	var errJSON []byte
 	if aerr != nil {
 		msg = aerr.Error()
 		b, err := errorResult(opt.Version, path, sum, msg)
 		if err != nil {
 			return "", "", err
 		}
-		if err := os.WriteFile(filepath.Join(tmp, "result.json"), b, 0o644); err != nil {
-			return "", "", fmt.Errorf("batch: %w", err)
-		}
+		errJSON = b
 	} else {
 		status = res.Status()
 		if status == StatusPartial {
 			msg = "no answer from " + strings.Join(failedKeys(res), ", ")
 		}
-		if _, err := res.WriteDir(tmp, WriteOptions{PNG: opt.PNG, Protect: []string{path}}); err != nil {
-			return "", "", err
+	}
+	// The folder is written only now that the analysis is done, so a temporary folder lives
+	// for the seconds of writing; if another batch starting meanwhile cleaned it away, write
+	// it again.
+	var err error
+	for attempt := 0; attempt < 3; attempt++ {
+		if err = writeAndReplace(folder, path, res, errJSON, opt); err == nil || !errors.Is(err, fs.ErrNotExist) {
+			break
 		}
 	}
-	return status, msg, replaceDir(tmp, folder)
+	return status, msg, err
+}
+
+// writeAndReplace writes one input's result (res, or the error result errJSON) into a new
+// temporary sibling of folder and puts it in place.
+func writeAndReplace(folder, path string, res *Result, errJSON []byte, opt BatchOptions) error {
+	tmp, err := os.MkdirTemp(opt.Dir, tmpPrefix+filepath.Base(folder)+"-")
+	if err != nil {
+		return fmt.Errorf("batch: %w", err)
+	}
+	defer os.RemoveAll(tmp)
+	if errJSON != nil {
+		if err := os.WriteFile(filepath.Join(tmp, "result.json"), errJSON, 0o644); err != nil {
+			return fmt.Errorf("batch: %w", err)
+		}
+	} else if _, err := res.WriteDir(tmp, WriteOptions{PNG: opt.PNG, Protect: []string{path}}); err != nil {
+		return err
+	}
+	return replaceDir(tmp, folder)
 }
 
 // analyze calls f and turns a panic inside one input's analysis into that input's error, so
@@ -326,17 +452,150 @@ func failedKeys(r *Result) []string {
 	return ks
 }
 
-// replaceDir moves the finished folder tmp to dst, replacing an older result.
+// Names of the batch folder's own entries. Entries starting with a dot are never result
+// folders and never inputs.
+const (
+	tmpPrefix = ".tmp-"   // a result being written, or an old result just swapped out
+	oldPrefix = ".old-"   // an old result moved aside (where folders cannot be swapped)
+	inputsDir = ".inputs" // one file per input a batch took on: its path
+)
+
+// replaceDir makes the complete folder tmp the result folder dst.
+//
+// When dst does not exist this is one rename. When it does, the two folders are swapped in one
+// atomic step where the system can (Linux: renameat2 RENAME_EXCHANGE) and the old result,
+// now at tmp, is removed. Elsewhere the old result is first renamed to .old-NAME-…, which
+// CleanLeftovers and Merge restore when a kill struck before the second rename. Another batch
+// replacing the same folder at the same time makes a step fail; it is retried, and the last
+// complete result wins.
 func replaceDir(tmp, dst string) error {
-	if _, err := os.Stat(dst); err == nil {
-		old := filepath.Join(filepath.Dir(dst), ".old-"+filepath.Base(dst)+"-"+strconv.FormatInt(time.Now().UnixNano(), 36))
-		if err := os.Rename(dst, old); err != nil {
+	var err error
+	for attempt := 0; attempt < 50; attempt++ {
+		if err = os.Rename(tmp, dst); err == nil {
+			return nil
+		}
+		if !errors.Is(err, fs.ErrExist) {
 			return fmt.Errorf("batch: %w", err)
 		}
-		defer os.RemoveAll(old)
+		err = exchange(tmp, dst)
+		switch {
+		case err == nil:
+			if rerr := os.RemoveAll(tmp); rerr != nil {
+				return fmt.Errorf("batch: removing the old result: %w", rerr)
+			}
+			return nil
+		case errors.Is(err, fs.ErrNotExist):
+			continue // dst went away in between: rename again
+		case !errors.Is(err, errors.ErrUnsupported):
+			return fmt.Errorf("batch: %w", err)
+		}
+		old := filepath.Join(filepath.Dir(dst), oldPrefix+filepath.Base(dst)+"-"+strconv.FormatInt(time.Now().UnixNano(), 36)+strconv.Itoa(attempt))
+		if err = os.Rename(dst, old); err != nil {
+			if errors.Is(err, fs.ErrNotExist) {
+				continue
+			}
+			return fmt.Errorf("batch: %w", err)
+		}
+		err = os.Rename(tmp, dst)
+		if err == nil {
+			os.RemoveAll(old)
+			return nil
+		}
+		// Another batch put its result in place in between: that one is newer than old.
+		os.RemoveAll(old)
+		if !errors.Is(err, fs.ErrExist) {
+			return fmt.Errorf("batch: %w", err)
+		}
 	}
-	if err := os.Rename(tmp, dst); err != nil {
+	return fmt.Errorf("batch: replacing %s: other runs kept replacing it (%v)", dst, err)
+}
+
+// CleanLeftovers tidies the batch folder dir before a run that started at start: an old
+// result moved aside (.old-NAME-…) whose folder NAME is missing — a kill struck between the
+// two renames of a replacement — is put back; other .old-* and .tmp-* entries last changed
+// before start are removed (those of a batch running at the same time are newer and kept;
+// one written by a batch at the very moment is moved away whole, and that batch writes it
+// again).
+func CleanLeftovers(dir string, start time.Time) error {
+	ents, err := os.ReadDir(dir)
+	if err != nil {
 		return fmt.Errorf("batch: %w", err)
+	}
+	restoreOld(dir, ents)
+	ents, err = os.ReadDir(dir)
+	if err != nil {
+		return fmt.Errorf("batch: %w", err)
+	}
+	for _, e := range ents {
+		n := e.Name()
+		if !strings.HasPrefix(n, tmpPrefix) && !strings.HasPrefix(n, oldPrefix) {
+			continue
+		}
+		fi, err := e.Info()
+		if err != nil || !fi.ModTime().Before(start) {
+			continue
+		}
+		// Move it out of the way in one rename first: a batch still writing into it then
+		// fails to rename it into place and writes again, instead of publishing a folder
+		// half removed. Removal is best effort; what stays is cleaned next time.
+		trash, err := os.MkdirTemp(dir, tmpPrefix+"trash-")
+		if err != nil {
+			return fmt.Errorf("batch: %w", err)
+		}
+		_ = os.Rename(filepath.Join(dir, n), filepath.Join(trash, n))
+		os.RemoveAll(trash)
+	}
+	return nil
+}
+
+// restoreOld renames each .old-NAME-… folder holding a complete result back to NAME when
+// NAME is missing (the newest when there are several).
+func restoreOld(dir string, ents []os.DirEntry) {
+	for i := len(ents) - 1; i >= 0; i-- { // names sort by time within one NAME: newest first
+		n := ents[i].Name()
+		if !ents[i].IsDir() || !strings.HasPrefix(n, oldPrefix) {
+			continue
+		}
+		k := strings.LastIndexByte(n, '-')
+		if k <= len(oldPrefix) {
+			continue
+		}
+		dst := filepath.Join(dir, n[len(oldPrefix):k])
+		if _, err := os.Stat(dst); !errors.Is(err, fs.ErrNotExist) {
+			continue
+		}
+		if _, err := readResultHead(filepath.Join(dir, n, "result.json")); err == nil {
+			os.Rename(filepath.Join(dir, n), dst)
+		}
+	}
+}
+
+// recordInput notes in dir/.inputs that this batch took on the input path (result folder
+// name), so that Merge can name the inputs whose result is missing.
+func recordInput(dir, name, path string) error {
+	rec := filepath.Join(dir, inputsDir)
+	if err := os.MkdirAll(rec, 0o755); err != nil {
+		return fmt.Errorf("batch: %w", err)
+	}
+	p := filepath.Join(rec, name)
+	if b, err := os.ReadFile(p); err == nil && string(b) == path+"\n" {
+		return nil
+	}
+	f, err := os.CreateTemp(rec, ".tmp-")
+	if err != nil {
+		return fmt.Errorf("batch: %w", err)
+	}
+	_, werr := f.WriteString(path + "\n")
+	cerr := f.Close()
+	if werr == nil {
+		werr = cerr
+	}
+	if werr == nil {
+		werr = os.Rename(f.Name(), p)
+	}
+	if werr != nil {
+		os.Remove(f.Name())
+		return fmt.Errorf("batch: %w", werr)
 	}
 	return nil
 }
@@ -406,14 +665,41 @@ func SummaryHeader() []string {
 // did not run or gave no answer).
 type Row [11]string
 
+// StatusMissing is the status of a summary row for an input a batch took on whose result
+// folder is missing (the run was killed or is still going).
+const StatusMissing = "missing"
+
 // Merge reads every result folder of dir (sub-directories holding result.json; names starting
-// with a dot are temporary and ignored) and returns the summary rows sorted by file.
+// with a dot are temporary and ignored) and returns the summary rows sorted by file. An old
+// result moved aside by a replacement that a kill interrupted is put back first. Every input
+// a batch took on (dir/.inputs) whose result folder is missing gets a row with status
+// "missing" that says so.
 func Merge(dir string) ([]Row, error) {
 	ents, err := os.ReadDir(dir)
 	if err != nil {
 		return nil, fmt.Errorf("batch: %w", err)
 	}
+	restoreOld(dir, ents)
+	if ents, err = os.ReadDir(dir); err != nil {
+		return nil, fmt.Errorf("batch: %w", err)
+	}
 	var rows []Row
+	if recs, err := os.ReadDir(filepath.Join(dir, inputsDir)); err == nil {
+		for _, r := range recs {
+			if strings.HasPrefix(r.Name(), ".") {
+				continue
+			}
+			if _, err := os.Stat(filepath.Join(dir, r.Name(), "result.json")); !errors.Is(err, fs.ErrNotExist) {
+				continue
+			}
+			b, err := os.ReadFile(filepath.Join(dir, inputsDir, r.Name()))
+			if err != nil {
+				continue
+			}
+			rows = append(rows, Row{0: strings.TrimSpace(string(b)), 9: StatusMissing,
+				10: "no result: the batch that took this input on did not finish it; run the batch again to resume"})
+		}
+	}
 	for _, e := range ents {
 		if !e.IsDir() || strings.HasPrefix(e.Name(), ".") {
 			continue

@@ -30,8 +30,12 @@ func SignalFigure(name, signal, unit, timeUnit string, x []float64, dt float64, 
 	}
 	n := min(len(x), maxShown)
 	trace := make(plotter.XYs, n)
+	k := extremeExponent(x[:n])
+	if k != 0 {
+		lab += " ×1e" + itoa(k) // values near ±1e308 or denormal: the axis shows x/10^k
+	}
 	for i := 0; i < n; i++ {
-		trace[i] = plotter.XY{X: float64(i) * dt, Y: x[i]}
+		trace[i] = plotter.XY{X: float64(i) * dt, Y: timesPow10(x[i], -k)}
 	}
 	p1 := plot.New()
 	p1.Title.Text = "the signal"
@@ -48,20 +52,27 @@ func SignalFigure(name, signal, unit, timeUnit string, x []float64, dt float64, 
 	l.Width = vg.Points(0.7)
 	p1.Add(plotter.NewGrid(), l)
 
-	f, pw := welch(x, dt)
+	f, pw, relative := welchScaled(x, dt)
 	p2 := plot.New()
 	p2.Title.Text = "power spectrum (Welch, Hann window)"
 	p2.X.Label.Text = "frequency (cycles per " + singular(timeUnit) + ")"
 	p2.Y.Label.Text = "power (log scale)"
-	p2.Y.Scale = plot.LogScale{}
-	p2.Y.Tick.Marker = plot.LogTicks{Prec: -1}
+	if relative {
+		p2.Y.Label.Text = "power relative to its peak (log scale)"
+	}
 	var spec plotter.XYs
 	for k := 1; k < len(f); k++ {
 		if pw[k] > 0 && !math.IsInf(pw[k], 0) {
 			spec = append(spec, plotter.XY{X: f[k], Y: pw[k]})
 		}
 	}
-	if len(spec) > 1 {
+	// A log axis needs two positive values (gonum/plot panics on an empty one); a constant
+	// record has no spectrum to draw.
+	if len(spec) < 2 {
+		p2.Title.Text = "power spectrum: none (the record is constant or too short)"
+	} else {
+		p2.Y.Scale = plot.LogScale{}
+		p2.Y.Tick.Marker = plot.LogTicks{Prec: -1}
 		ls, err := plotter.NewLine(spec)
 		if err != nil {
 			return Figure{}, err
@@ -72,6 +83,64 @@ func SignalFigure(name, signal, unit, timeUnit string, x []float64, dt float64, 
 	}
 	return Figure{Name: name, Caption: "The record as read (after any preprocessing) and its power spectrum.",
 		Width: 9 * vg.Inch, Height: 6.5 * vg.Inch, Rows: [][]*plot.Plot{{p1}, {p2}}}, nil
+}
+
+// extremeExponent returns k such that the largest magnitude of x is about 10^k when that is
+// beyond 10^±100 (a plotted axis of such values cannot be labelled), and 0 otherwise.
+func extremeExponent(x []float64) int {
+	var big float64
+	for _, v := range x {
+		if !math.IsInf(v, 0) {
+			big = math.Max(big, math.Abs(v))
+		}
+	}
+	if big == 0 || (big < 1e100 && big > 1e-100) {
+		return 0
+	}
+	return int(math.Floor(math.Log10(big)))
+}
+
+// timesPow10 returns v·10^k in two steps, so that neither factor overflows (10^±310).
+func timesPow10(v float64, k int) float64 {
+	h := k / 2
+	return v * math.Pow10(h) * math.Pow10(k-h)
+}
+
+// welchScaled is welch computed on the record scaled by a power of two 2^−e that brings its
+// largest magnitude near 1, so that the squares of values near ±1e308 do not overflow and
+// those of denormal values (1e−310) do not vanish. The power is scaled back by 2^2e when that
+// is a finite normal number everywhere; otherwise (the power itself is beyond float64) it is
+// returned relative to its peak and relative is true.
+func welchScaled(x []float64, dt float64) (f, pw []float64, relative bool) {
+	var big float64
+	for _, v := range x {
+		big = math.Max(big, math.Abs(v))
+	}
+	e := 0
+	if big > 0 && !math.IsInf(big, 0) {
+		_, e = math.Frexp(big)
+	}
+	y := make([]float64, len(x))
+	for i, v := range x {
+		y[i] = math.Ldexp(v, -e)
+	}
+	f, pw = welch(y, dt)
+	var peak float64
+	back := true
+	for _, p := range pw {
+		peak = math.Max(peak, p)
+		if q := math.Ldexp(p, 2*e); p > 0 && (math.IsInf(q, 0) || q < 0x1p-1022) {
+			back = false
+		}
+	}
+	for k := range pw {
+		if back {
+			pw[k] = math.Ldexp(pw[k], 2*e)
+		} else if peak > 0 {
+			pw[k] /= peak
+		}
+	}
+	return f, pw, !back
 }
 
 // welch returns the frequencies and the Welch spectrum of x with the symmetric Hann window and

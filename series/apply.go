@@ -143,14 +143,10 @@ func (p Prep) Apply(s *Series) (*Series, error) {
 		if err := CheckVariable(x); err != nil {
 			return nil, fmt.Errorf("--standardize: %w", err)
 		}
-		m := mean(x)
-		var ss float64
-		for _, v := range x {
-			ss += (v - m) * (v - m)
-		}
-		sd := math.Sqrt(ss / float64(len(x)))
+		e := scaleExp(x) // scaled so that x − m cannot overflow nor a square underflow
+		ms, sds := scaledMeanStd(x, e)
 		for i := range x {
-			x[i] = (x[i] - m) / sd
+			x[i] = (math.Ldexp(x[i], -e) - ms) / sds
 		}
 	}
 	return &out, nil

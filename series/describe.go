@@ -55,42 +55,129 @@ type Stationarity struct {
 const shiftLimit = 4
 
 // Describe computes the Summary of s. It needs at least 8 samples.
+//
+// The statistics are computed on the record scaled by a power of two that brings its largest
+// magnitude near 1 (exact for every normal number), so values near ±1.5e308 do not overflow a
+// sum and denormal values (1e−310) do not underflow a square; results are in the input's
+// units. Only a record whose samples are all equal (−0 equals +0) is called constant.
 func Describe(s *Series) (*Summary, error) {
-	x := s.Values
-	n := len(x)
+	n := len(s.Values)
 	if n < 8 {
 		return nil, fmt.Errorf("describe: %d samples are too few (need at least 8)", n)
 	}
 	sm := &Summary{Samples: n, Dt: s.Dt, Duration: s.Duration(), GapsFilled: s.GapsFilled}
-	sm.Mean, sm.Std = meanStd(x)
-	sm.Min, sm.Max = x[0], x[0]
-	for _, v := range x {
+	x, e := scaled(s.Values)
+	back := func(v float64) float64 { return math.Ldexp(v, e) }
+	sm.Min, sm.Max = s.Values[0], s.Values[0]
+	for _, v := range s.Values {
 		sm.Min = math.Min(sm.Min, v)
 		sm.Max = math.Max(sm.Max, v)
 	}
-	sm.Quantization = quantization(x)
-	if sm.Std == 0 {
+	if constant(s.Values) {
+		sm.Mean = s.Values[0]
 		sm.Cautions = append(sm.Cautions, "the signal is constant: there is nothing to analyse")
 		sm.Stationarity.Stationary = true
 		return sm, nil
 	}
+	m, sd := meanStd(x)
+	sm.Mean, sm.Std = back(m), back(sd)
+	sm.Quantization = roundStep(back(quantization(x)))
+	defer func() {
+		st := &sm.Stationarity
+		for _, v := range [][]float64{st.HalfMeans, st.HalfStds, st.QuarterMeans, st.QuarterStds} {
+			for i := range v {
+				v[i] = back(v[i])
+			}
+		}
+	}()
 	if sm.Quantization > 0 && sm.Std/sm.Quantization < 10 {
 		sm.Cautions = append(sm.Cautions, fmt.Sprintf("coarse quantisation: the standard deviation is only %.1f quantisation steps; neighbour-based estimates at small scales will see the steps", sm.Std/sm.Quantization))
 	}
-	p, nfft := dominantPeriod(x, sm.Mean)
+	p, nfft := dominantPeriod(x, m)
 	if p > 0 {
 		sm.DominantPeriod = p * s.Dt
 		if p >= 0.5*float64(nfft) {
 			sm.Cautions = append(sm.Cautions, "the strongest periodogram component is as long as the record: a trend or a very slow drift dominates; try --detrend linear")
 		}
 	}
-	sm.Stationarity = stationarity(x, sm.Mean, sm.Std)
+	sm.Stationarity = stationarity(x, m, sd)
 	if !sm.Stationarity.Stationary {
 		sm.Cautions = append(sm.Cautions, fmt.Sprintf("the record looks non-stationary: segment means differ by up to %.1f and variances by up to %.1f standard errors of sampling (limit %d); a trend, a drift or a change of regime will bias every estimate — consider --detrend or a shorter --from/--to range", sm.Stationarity.MeanShift, sm.Stationarity.VarianceShift, shiftLimit))
 	}
 	return sm, nil
 }
 
+// MeanStd returns the mean and the population standard deviation of x, computed on x scaled
+// by a power of two so that neither overflows for values near ±1.8e308 nor underflows for
+// denormal values; both are in the units of x. It returns NaN, NaN for an empty x.
+func MeanStd(x []float64) (mean, std float64) {
+	if len(x) == 0 {
+		return math.NaN(), math.NaN()
+	}
+	e := scaleExp(x)
+	m, sd := scaledMeanStd(x, e)
+	return math.Ldexp(m, e), math.Ldexp(sd, e)
+}
+
+// scaledMeanStd returns the mean and standard deviation of x·2^−e.
+func scaledMeanStd(x []float64, e int) (mean, std float64) {
+	var s float64
+	for _, v := range x {
+		s += math.Ldexp(v, -e)
+	}
+	m := s / float64(len(x))
+	var ss float64
+	for _, v := range x {
+		d := math.Ldexp(v, -e) - m
+		ss += d * d
+	}
+	return m, math.Sqrt(ss / float64(len(x)))
+}
+
+// ScaleExponent returns e such that x·2^−e has its largest magnitude in [0.5, 1) (0 when x is
+// all zeros or holds a non-finite value). Multiplying by a power of two is exact for normal
+// numbers, so an analysis can run on x·2^−e — no overflow for values near ±1.8e308, no
+// underflow for denormal values — and state its results in the input's units by multiplying
+// quantities in signal units by 2^e (math.Ldexp). Scale-free results (lags, dimensions,
+// exponents per time, D2) are unchanged.
+func ScaleExponent(x []float64) int { return scaleExp(x) }
+
+// scaleExp returns the exponent e with 2^e just above the largest magnitude of x (0 when x is
+// all zeros or holds a non-finite value).
+func scaleExp(x []float64) int {
+	var big float64
+	for _, v := range x {
+		big = math.Max(big, math.Abs(v))
+	}
+	if big == 0 || math.IsInf(big, 0) || math.IsNaN(big) {
+		return 0
+	}
+	_, e := math.Frexp(big)
+	return e
+}
+
+// scaled returns x·2^−e, a copy whose largest magnitude is in [0.5, 1), and e.
+func scaled(x []float64) ([]float64, int) {
+	e := scaleExp(x)
+	y := make([]float64, len(x))
+	for i, v := range x {
+		y[i] = math.Ldexp(v, -e)
+	}
+	return y, e
+}
+
+// constant reports whether every value of x equals the first (−0 and +0 are equal).
+func constant(x []float64) bool {
+	for _, v := range x {
+		if v != x[0] {
+			return false
+		}
+	}
+	return true
+}
+
+// meanStd is the mean and population standard deviation of x without scaling (x is already
+// of order one).
 func meanStd(x []float64) (mean, std float64) {
 	for _, v := range x {
 		mean += v
@@ -104,8 +191,8 @@ func meanStd(x []float64) (mean, std float64) {
 	return mean, math.Sqrt(ss / float64(len(x)))
 }
 
-// quantization returns the smallest positive difference between sorted values, rounded to ten
-// significant digits so that decimal rounding in a file reads as its step (0.01, not 0.0099999).
+// quantization returns the smallest positive difference between sorted values (0 when all are
+// equal).
 func quantization(x []float64) float64 {
 	v := slices.Clone(x)
 	slices.Sort(v)
@@ -118,6 +205,12 @@ func quantization(x []float64) float64 {
 	if math.IsInf(q, 1) {
 		return 0
 	}
+	return q
+}
+
+// roundStep rounds a quantisation step to ten significant digits so that decimal rounding in
+// a file reads as its step (0.01, not 0.0099999).
+func roundStep(q float64) float64 {
 	r, err := strconv.ParseFloat(strconv.FormatFloat(q, 'g', 10, 64), 64)
 	if err != nil {
 		return q

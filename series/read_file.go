@@ -261,5 +261,6 @@ func read(r io.Reader, name string, opt ReadOptions) (*Series, readInfo, error) 
 	if err != nil {
 		return nil, info, err
 	}
+	s.Notes = info.notes
 	return s, info, nil
 }

@@ -4,10 +4,7 @@
 // (range selection, detrending, standardisation, decimation) and atomic writers.
 package series
 
-import (
-	"fmt"
-	"math"
-)
+import "fmt"
 
 // Series is one uniformly sampled scalar record.
 type Series struct {
@@ -30,6 +27,12 @@ type Series struct {
 	TimeUnit string
 	// GapsFilled counts NaN/Inf/empty cells that were dropped or interpolated on reading.
 	GapsFilled int
+	// Notes are the automatic choices the reader made, in plain words, for `inspect` and the
+	// report to show: the delimiter, decimal commas ("decimal commas: numbers are written like
+	// "0,0047" …"), the time column (ISO-8601 date-times and the instant times count from),
+	// dt, the signal column chosen among several ("3 numeric columns: using "x" …; choose with
+	// --column") and gaps filled. The same list is Source.Notes.
+	Notes []string
 }
 
 // Len returns the number of samples.
@@ -73,36 +76,32 @@ func (e *InputError) Error() string {
 	}
 }
 
-// ErrConstant is returned by CheckVariable for a record that is constant or nearly so; analyses
+// ErrConstant is returned by CheckVariable for a record whose samples are all equal; analyses
 // refuse such records (exit status 1: the analysis ran but has no answer).
-type ErrConstant struct{ Std, Scale float64 }
-
-func (e *ErrConstant) Error() string {
-	return fmt.Sprintf("the signal is constant or nearly so (standard deviation %.3g against a scale of %.3g): there is no dynamics to analyse", e.Std, e.Scale)
+type ErrConstant struct {
+	// Value is the value every sample has.
+	Value float64
+	// Samples is the length of the record.
+	Samples int
 }
 
-// CheckVariable returns an *ErrConstant when the record's standard deviation is zero or below
-// 1e-12 of its largest absolute value (round-off level), and nil otherwise.
+func (e *ErrConstant) Error() string {
+	if e.Samples == 0 {
+		return "the record is empty: there is no dynamics to analyse"
+	}
+	return fmt.Sprintf("the signal is constant (all %d samples are %g): there is no dynamics to analyse", e.Samples, e.Value)
+}
+
+// CheckVariable returns an *ErrConstant when the record is empty or all its samples are equal
+// (−0 and +0 count as equal), and nil otherwise. A record of tiny (denormal) or huge magnitude
+// is not constant: the estimators work on it after scaling.
 func CheckVariable(x []float64) error {
-	if len(x) == 0 {
-		return &ErrConstant{}
-	}
-	var mean, scale float64
-	for _, v := range x {
-		mean += v
-		if a := math.Abs(v); a > scale {
-			scale = a
+	if len(x) == 0 || constant(x) {
+		e := &ErrConstant{Samples: len(x)}
+		if len(x) > 0 {
+			e.Value = x[0] + 0 // −0 + 0 is +0: print "0"
 		}
-	}
-	mean /= float64(len(x))
-	var ss float64
-	for _, v := range x {
-		d := v - mean
-		ss += d * d
-	}
-	std := math.Sqrt(ss / float64(len(x)))
-	if std == 0 || std <= 1e-12*scale {
-		return &ErrConstant{Std: std, Scale: scale}
+		return e
 	}
 	return nil
 }

@@ -266,6 +266,7 @@ const (
 	cellNumber cellKind = iota // a finite number
 	cellGap                    // empty, NA, NaN or ±Inf
 	cellText                   // anything else
+	cellStamp                  // an ISO-8601 date-time (a text cell that is a time stamp)
 )
 
 // naTokens are the spellings of a missing value besides the empty cell and NaN/Inf.
@@ -372,6 +373,7 @@ func columnList(names []string, ncol int) string {
 // resolveColumn finds a column by name (exact, then ignoring case and surrounding spaces) or by
 // 1-based index; it returns −1 when there is none.
 func resolveColumn(spec string, names []string, ncol int) int {
+	spec = CleanText(spec)
 	for j, n := range names {
 		if n == spec {
 			return j
@@ -488,12 +490,14 @@ func readText(r io.Reader, path string, opt ReadOptions) (*Series, []string, err
 	}
 	delim := detectDelimiter(line)
 	fields := splitFields(line, delim, make([]span, 0, 16))
+	commaDelim := delim == ';' || delim == '\t'
+	cr := cellReader{comma: commaDelim && decimalCommaRow(line, fields)}
 
 	// A header is a first line with a cell that is neither a number nor a gap.
 	var names []string
 	headerLine := 0
 	for _, f := range fields {
-		if _, k := classify(line[f.lo:f.hi], f.bad); k == cellText {
+		if _, k := cr.classify(line[f.lo:f.hi], f.bad); k == cellText && !isStampCell(line, f) {
 			headerLine = lr.line
 			break
 		}
@@ -501,7 +505,7 @@ func readText(r io.Reader, path string, opt ReadOptions) (*Series, []string, err
 	if headerLine > 0 {
 		names = make([]string, len(fields))
 		for j, f := range fields {
-			names[j] = strings.TrimSpace(fieldText(line, f))
+			names[j] = CleanText(fieldText(line, f))
 		}
 		line, err = nextContent()
 		if err == io.EOF {
@@ -511,6 +515,12 @@ func readText(r io.Reader, path string, opt ReadOptions) (*Series, []string, err
 			return nil, nil, err
 		}
 		fields = splitFields(line, delim, fields)
+		if commaDelim && !cr.comma {
+			cr.comma = decimalCommaRow(line, fields)
+		}
+	}
+	if cr.comma {
+		notes = append(notes, fmt.Sprintf("decimal commas: numbers are written like %q (read as %s)", commaExample(line, fields), commaExampleValue(line, fields)))
 	}
 	ncol := len(fields)
 	if names != nil && len(names) == ncol-1 {
@@ -524,9 +534,15 @@ func readText(r io.Reader, path string, opt ReadOptions) (*Series, []string, err
 	}
 	kinds := make([]cellKind, ncol)
 	for j, f := range fields {
-		_, kinds[j] = classify(line[f.lo:f.hi], f.bad)
+		b := line[f.lo:f.hi]
+		if _, kinds[j] = cr.classify(b, f.bad); kinds[j] == cellText && !f.bad && looksISO(b) {
+			if _, _, _, ok := isoStamp(b); ok {
+				kinds[j] = cellStamp
+			}
+		}
 	}
-	numeric := func(j int) bool { return kinds[j] != cellText }
+	numeric := func(j int) bool { return kinds[j] == cellNumber || kinds[j] == cellGap }
+	timeLike := func(j int) bool { return numeric(j) || kinds[j] == cellStamp }
 
 	// Time column.
 	tcol := -1
@@ -544,12 +560,28 @@ func readText(r io.Reader, path string, opt ReadOptions) (*Series, []string, err
 		}
 	case names != nil:
 		for j, n := range names {
-			if ok, u := timeName(n); ok && numeric(j) {
+			if ok, u := timeName(n); ok && timeLike(j) {
 				tcol, timeUnit = j, u
 				notes = append(notes, fmt.Sprintf("time column %q (by its name)", n))
 				break
 			}
 		}
+	}
+	if tcol < 0 && strings.TrimSpace(opt.TimeColumn) == "" {
+		for j, k := range kinds {
+			if k == cellStamp {
+				tcol = j
+				notes = append(notes, fmt.Sprintf("time column %d (ISO-8601 date-times)", j+1))
+				if names != nil && names[j] != "" {
+					notes[len(notes)-1] = fmt.Sprintf("time column %q (ISO-8601 date-times)", names[j])
+				}
+				break
+			}
+		}
+	}
+	isoTime := tcol >= 0 && kinds[tcol] == cellStamp
+	if isoTime {
+		timeUnit = "s"
 	}
 
 	// Value column.
@@ -590,10 +622,13 @@ func readText(r io.Reader, path string, opt ReadOptions) (*Series, []string, err
 				Msg: fmt.Sprintf("no numeric signal column: %s", columnList(names, ncol))}
 		}
 		vcol = cand[0]
-		if len(cand) == 1 {
+		switch {
+		case len(cand) == 1:
 			notes = append(notes, fmt.Sprintf("signal column %q (the only numeric column besides time)", colName(vcol)))
-		} else {
-			notes = append(notes, fmt.Sprintf("signal column %q (the first of %d numeric columns; choose with --column)", colName(vcol), len(cand)))
+		case tcol >= 0:
+			notes = append(notes, fmt.Sprintf("%d numeric columns: using %q (the first besides the time column); choose with --column", len(cand), colName(vcol)))
+		default:
+			notes = append(notes, fmt.Sprintf("%d numeric columns: using %q (the first); choose with --column", len(cand), colName(vcol)))
 		}
 	}
 	notes = append(notes, "delimiter: "+delimiterName(delim))
@@ -610,6 +645,9 @@ func readText(r io.Reader, path string, opt ReadOptions) (*Series, []string, err
 		tc.name = colName(tcol)
 	}
 	g := gapFiller{policy: opt.Gaps}
+	var sec0, nsec0 int64 // the first ISO-8601 stamp; times are counted from it
+	stamp0 := ""
+	sawPoint := false // a number of the signal column was written with a decimal point
 	for {
 		if len(fields) != ncol {
 			col := 1
@@ -626,7 +664,16 @@ func readText(r io.Reader, path string, opt ReadOptions) (*Series, []string, err
 				Msg: fmt.Sprintf("ragged rows: this row has %d fields, %s", len(fields), want)}
 		}
 		f := fields[vcol]
-		v, k := classify(line[f.lo:f.hi], f.bad)
+		v, k := cr.classify(line[f.lo:f.hi], f.bad)
+		if k == cellText && commaDelim && !cr.comma && !sawPoint && decimalCommaRow(line, fields) {
+			// The rows so far held whole numbers only, which read the same either way; this
+			// is the first row that shows the decimal comma.
+			cr.comma = true
+			notes = append(notes, fmt.Sprintf("decimal commas: numbers are written like %q (read as %s), first on line %d", commaExample(line, fields), commaExampleValue(line, fields), lr.line))
+			v, k = cr.classify(line[f.lo:f.hi], f.bad)
+		} else if k == cellNumber && !cr.comma && bytes.IndexByte(line[f.lo:f.hi], '.') >= 0 {
+			sawPoint = true
+		}
 		switch k {
 		case cellNumber:
 			g.value(v)
@@ -642,12 +689,31 @@ func readText(r io.Reader, path string, opt ReadOptions) (*Series, []string, err
 			g.gap()
 		default:
 			return nil, nil, &InputError{Path: path, Line: lr.line, Column: f.start + 1,
-				Msg: fmt.Sprintf("%q in column %q is not a number", clip(line[f.lo:f.hi]), colName(vcol))}
+				Msg: fmt.Sprintf("%q in column %q is not a number%s", clip(line[f.lo:f.hi]), colName(vcol), cr.hint(line[f.lo:f.hi]))}
 		}
-		if useTime {
+		if useTime && isoTime {
 			f := fields[tcol]
 			b := line[f.lo:f.hi]
+			sec, nsec, q, ok := isoStamp(b)
+			if !ok || f.bad {
+				return nil, nil, &InputError{Path: path, Line: lr.line, Column: f.start + 1,
+					Msg: fmt.Sprintf("time %q in column %q is not an ISO-8601 date-time like the first ones (2026-01-01T00:00:00Z, 2026-01-01 00:00:00.5, 2026-01-01T01:00:00+01:00)", clip(b), tc.name)}
+			}
+			if tc.n == 0 {
+				sec0, nsec0 = sec, nsec
+				stamp0 = string(b)
+			}
+			t := float64(sec-sec0) + float64(nsec-nsec0)*1e-9
+			if err := tc.add(t, q, lr.line, f.start+1); err != nil {
+				return nil, nil, err
+			}
+		} else if useTime {
+			f := fields[tcol]
+			b, okc := cr.text(line[f.lo:f.hi])
 			t, k := classify(b, f.bad)
+			if !okc {
+				k = cellText
+			}
 			if k != cellNumber {
 				what := "is not a number"
 				if k == cellGap {
@@ -684,7 +750,11 @@ func readText(r io.Reader, path string, opt ReadOptions) (*Series, []string, err
 		s.Dt = (tc.prev - tc.t0) / float64(tc.n-1)
 		s.T0 = tc.t0
 		s.TimeName = tc.name
-		notes = append(notes, fmt.Sprintf("dt %s from the time column %q", fmtG(s.Dt), tc.name))
+		if isoTime {
+			notes = append(notes, fmt.Sprintf("dt %s s from the ISO-8601 date-times of column %q (times counted in seconds from %s)", fmtG(s.Dt), tc.name, stamp0))
+		} else {
+			notes = append(notes, fmt.Sprintf("dt %s from the time column %q", fmtG(s.Dt), tc.name))
+		}
 	case useTime:
 		s.T0 = tc.t0
 		s.TimeName = tc.name

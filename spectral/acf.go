@@ -2,6 +2,7 @@ package spectral
 
 import (
 	"fmt"
+	"math"
 
 	"gonum.org/v1/gonum/dsp/fourier"
 )
@@ -73,6 +74,21 @@ func Autocorrelation(x []float64, maxLag int) ([]float64, error) {
 	}
 	if maxLag < 0 || maxLag > n-1 {
 		maxLag = n - 1
+	}
+	// R is scale-free: work on x·2^−e with the largest magnitude near 1, so that the squares
+	// of values near ±1e308 do not overflow and those of denormal values do not vanish.
+	var big float64
+	for _, v := range x {
+		big = math.Max(big, math.Abs(v))
+	}
+	if big > 0 && !math.IsInf(big, 0) {
+		if _, e := math.Frexp(big); e != 0 {
+			y := make([]float64, n)
+			for i, v := range x {
+				y[i] = math.Ldexp(v, -e)
+			}
+			x = y
+		}
 	}
 	r := make([]float64, maxLag+1)
 	NewAutocovariance(n, 0).Add(r, x, meanOf(x))

@@ -10,12 +10,14 @@ import (
 	"os"
 	"runtime"
 	"runtime/debug"
+	"strconv"
 	"strings"
 	"text/tabwriter"
 
 	"github.com/schollz/progressbar/v3"
 	"golang.org/x/term"
 
+	"unfold/internal/safejson"
 	"unfold/series"
 )
 
@@ -30,6 +32,7 @@ const (
 	exitOK       = 0
 	exitNoAnswer = 1 // the analysis ran but could not give an answer
 	exitBadInput = 2 // bad usage or bad input
+	exitInternal = 3 // an internal error (a recovered panic)
 )
 
 // app carries what every command shares: the standard streams and the global options.
@@ -90,8 +93,18 @@ func exitCode(err error) int {
 	}
 }
 
-// run executes the command line and returns the exit status.
-func run(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
+// run executes the command line and returns the exit status. A panic is an internal error
+// (exit status 3): one line naming the inputs, the stack only with UNFOLD_DEBUG=1.
+func run(args []string, stdin io.Reader, stdout, stderr io.Writer) (code int) {
+	defer func() {
+		if p := recover(); p != nil {
+			fmt.Fprintf(stderr, "unfold: internal error, please report: %v (input %s)\n", p, inputsOf(args))
+			if os.Getenv("UNFOLD_DEBUG") == "1" {
+				stderr.Write(debug.Stack())
+			}
+			code = exitInternal
+		}
+	}()
 	a := &app{stdin: stdin, stdout: stdout, stderr: stderr}
 	if f, ok := stderr.(*os.File); ok {
 		a.stderrTTY = term.IsTerminal(int(f.Fd()))
@@ -109,6 +122,23 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 		}
 	}
 	return exitCode(err)
+}
+
+// inputsOf names the inputs of a command line for an internal-error message: the arguments
+// that are existing files or "-".
+func inputsOf(args []string) string {
+	var in []string
+	for _, a := range args {
+		if a == "-" {
+			in = append(in, "standard input")
+		} else if st, err := os.Stat(a); err == nil && !st.IsDir() {
+			in = append(in, strconv.Quote(a))
+		}
+	}
+	if len(in) == 0 {
+		return "none"
+	}
+	return strings.Join(in, ", ")
 }
 
 // threads returns the number of worker goroutines to use (--threads, default all cores).
@@ -215,14 +245,14 @@ func buildJSON(command string, in *inputInfo, params any, body any) ([]byte, err
 	if params == nil {
 		params = struct{}{}
 	}
-	b, err := json.Marshal(params)
+	b, _, err := safejson.Marshal(params) // non-finite numbers as null; cautions: see internal/safejson
 	if err != nil {
 		return nil, fmt.Errorf("%s: encoding JSON parameters: %w", command, err)
 	}
 	buf.WriteString(`,"parameters":`)
 	buf.Write(b)
 	if body != nil {
-		b, err := json.Marshal(body)
+		b, _, err := safejson.Marshal(body)
 		if err != nil {
 			return nil, fmt.Errorf("%s: encoding JSON result: %w", command, err)
 		}
