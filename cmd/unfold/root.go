@@ -50,6 +50,7 @@ an answer (the message says why), 2 bad usage or bad input (the message says wha
 		newCompletionCmd(),
 		newDenoiseCmd(a),
 		newStatesCmd(a),
+		newSweepCmd(a),
 	)
 	return root
 }

@@ -1,8 +1,18 @@
 #!/usr/bin/env bash
-# unfold-array.sh — run `unfold batch` as a Slurm job array, with a dependent merge job.
+# unfold-array.sh — run `unfold batch` (or `unfold sweep`) as a Slurm job array, with a
+# dependent merge job.
 #
 #   deploy/slurm/unfold-array.sh -o /shared/out --shards 8 --threads 2 /shared/data/*.csv
 #   deploy/slurm/unfold-array.sh -o /shared/out --shards 8 --list paths.txt --dry-run
+#   deploy/slurm/unfold-array.sh -o /shared/sweep-out --shards 8 --sweep /shared/sweep/list.csv
+#
+# With --sweep LIST (a sweep's LIST: a CSV with a path column and the control parameter's
+# column, as `unfold simulate --sweep` writes it) every task runs
+# `unfold sweep LIST --shard K/N -o OUT` and the merge job `unfold sweep LIST --merge -o OUT`,
+# which rebuilds OUT/sweep.csv and OUT/sweep.html (and prints the route in its log). The
+# records are the LIST's paths (relative ones beside LIST); --parameter NAME goes to the tasks
+# and to the merge. LIST is read for the sizes only as plain comma-separated cells (no quoted
+# commas); unfold itself reads it as CSV.
 #
 # It writes, under OUT/slurm/:
 #   inputs.txt      the inputs as absolute paths, one per line (every task reads the same list);
@@ -33,7 +43,7 @@ set -euo pipefail
 
 usage() {
   cat <<'USAGE'
-usage: unfold-array.sh -o OUT [options] (FILE... | --list FILE)
+usage: unfold-array.sh -o OUT [options] (FILE... | --list FILE | --sweep LIST)
 
   -o, --out DIR        unfold batch output folder (on a file system every node sees)
   -n, --shards N       array size = shard count (default 4; at most the number of inputs)
@@ -45,9 +55,11 @@ usage: unfold-array.sh -o OUT [options] (FILE... | --list FILE)
       --account A      Slurm account
       --unfold PATH    the unfold binary (default: unfold on PATH)
       --list FILE      read input paths from FILE, one per line
+      --sweep LIST     run `unfold sweep LIST` per task and `unfold sweep LIST --merge` at the end
+      --parameter NAME with --sweep: the LIST column of the control parameter
       --dry-run        write and print the scripts, submit nothing (needs no Slurm)
       --wait           submit, then wait until the merge job has ended (sbatch --wait)
-  -- ARGS...           further arguments for every `unfold batch` task (e.g. --seed 7)
+  -- ARGS...           further arguments for every `unfold batch`/`unfold sweep` task (e.g. --seed 7)
 USAGE
 }
 
@@ -56,7 +68,7 @@ abspath() { case "$1" in /*) printf '%s\n' "$1" ;; *) printf '%s/%s\n' "$(pwd)" 
 posint() { [[ "$2" =~ ^[1-9][0-9]*$ ]] || die "$1 must be a positive integer, got '$2'"; }
 
 out="" shards=4 threads=1 jobs=1 mem="" timelimit="" partition="" account=""
-unfold_bin="" list="" dry=0 wait=0
+unfold_bin="" list="" sweep="" parameter="" dry=0 wait=0
 inputs=() extra=()
 while [ $# -gt 0 ]; do
   case "$1" in
@@ -70,6 +82,8 @@ while [ $# -gt 0 ]; do
     --account) account=${2?}; shift 2 ;;
     --unfold) unfold_bin=${2?}; shift 2 ;;
     --list) list=${2?}; shift 2 ;;
+    --sweep) sweep=${2?}; shift 2 ;;
+    --parameter) parameter=${2?}; shift 2 ;;
     --dry-run) dry=1; shift ;;
     --wait) wait=1; shift ;;
     -h|--help) usage; exit 0 ;;
@@ -90,7 +104,36 @@ if [ -n "$list" ]; then
     inputs+=("$line")
   done <"$list"
 fi
-[ ${#inputs[@]} -gt 0 ] || die "no inputs: give files, directories or --list FILE"
+if [ -n "$sweep" ]; then
+  [ -z "$list" ] && [ ${#inputs[@]} -eq 0 ] || die "--sweep LIST takes its records from LIST: give no files or --list"
+  [ -r "$sweep" ] || die "--sweep $sweep: cannot read it"
+  sweep=$(abspath "$sweep")
+  # The path column of the header (case-insensitive), then that cell of every record line.
+  pathcol=0 lineno=0
+  while IFS= read -r line || [ -n "$line" ]; do
+    lineno=$((lineno + 1))
+    line=${line%$'\r'}
+    case "$line" in ''|'#'*) continue ;; esac
+    IFS=, read -r -a cells <<<"$line"
+    if [ "$pathcol" = 0 ]; then
+      for i in "${!cells[@]}"; do
+        c=${cells[$i]//[[:space:]\"]/}
+        [ "${c,,}" = path ] && pathcol=$((i + 1))
+      done
+      [ "$pathcol" != 0 ] || die "--sweep $sweep:$lineno: no column named path in the header"
+      continue
+    fi
+    p=${cells[$((pathcol - 1))]:-}
+    p=${p#"${p%%[![:space:]]*}"}; p=${p%"${p##*[![:space:]]}"}; p=${p#\"}; p=${p%\"}
+    [ -n "$p" ] || die "--sweep $sweep:$lineno: empty path"
+    case "$p" in /*) ;; *) p="$(dirname "$sweep")/$p" ;; esac
+    inputs+=("$p")
+  done <"$sweep"
+  [ -z "$parameter" ] || [[ "$parameter" =~ ^[^[:space:]]+$ ]] || die "--parameter '$parameter': a column name without white space"
+elif [ -n "$parameter" ]; then
+  die "--parameter goes with --sweep LIST"
+fi
+[ ${#inputs[@]} -gt 0 ] || die "no inputs: give files, directories, --list FILE or --sweep LIST"
 
 if [ -z "$unfold_bin" ]; then unfold_bin=$(command -v unfold || true); fi
 [ -n "$unfold_bin" ] || die "unfold is not on PATH; give --unfold PATH"
@@ -126,6 +169,22 @@ mv "$dir/inputs.txt.tmp" "$dir/inputs.txt"
 q() { printf '%q' "$1"; }
 extra_q=""
 for e in "${extra[@]+"${extra[@]}"}"; do extra_q+=" $(q "$e")"; done
+# What each task and the merge job run.
+if [ -n "$sweep" ]; then
+  cmdname=sweep
+  param_q=""
+  [ -z "$parameter" ] || param_q=" --parameter $(q "$parameter")"
+  task_cmd="sweep $(q "$sweep") -o $(q "$out")$param_q"
+  merge_cmd="sweep $(q "$sweep") --merge -o $(q "$out")$param_q"
+  merge_what="$out/sweep.csv and $out/sweep.html"
+  merge_mem=$mem # the merge reads every record again (for the diagram and the spectral lines)
+else
+  cmdname=batch
+  task_cmd="batch --list $(q "$dir/inputs.txt") -o $(q "$out")"
+  merge_cmd="batch --merge $(q "$out")"
+  merge_what="$out/summary.csv"
+  merge_mem=256M
+fi
 opt_lines() {
   [ -z "$timelimit" ] || echo "#SBATCH --time=$timelimit"
   [ -z "$partition" ] || echo "#SBATCH --partition=$partition"
@@ -135,11 +194,11 @@ opt_lines() {
 {
   cat <<HEAD
 #!/bin/bash
-# unfold batch as a Slurm job array: ${#abs[@]} inputs in $shards shards (written by unfold-array.sh).
+# unfold $cmdname as a Slurm job array: ${#abs[@]} inputs in $shards shards (written by unfold-array.sh).
 # The array index is 0-based (--array=0-$((shards - 1))) and unfold's --shard K/N is 1-based:
 # task SLURM_ARRAY_TASK_ID runs shard SLURM_ARRAY_TASK_ID+1 of $shards.
 # Memory: 256 MiB + $jobs x 64 x $largest bytes (largest input). CPUs: --jobs $jobs x --threads $threads.
-#SBATCH --job-name=unfold-batch
+#SBATCH --job-name=unfold-$cmdname
 #SBATCH --array=0-$((shards - 1))
 #SBATCH --cpus-per-task=$cpus
 #SBATCH --mem=$mem
@@ -156,7 +215,7 @@ if [ "\${SLURM_ARRAY_TASK_ID:-x}" = x ] || [ "\$SLURM_ARRAY_TASK_ID" -ge "\$shar
   echo "array.sbatch: SLURM_ARRAY_TASK_ID must be 0..\$((shards - 1)), got '\${SLURM_ARRAY_TASK_ID:-}'" >&2
   exit 2
 fi
-exec $(q "$unfold_bin") batch --list $(q "$dir/inputs.txt") -o $(q "$out") \\
+exec $(q "$unfold_bin") $task_cmd \\
   --jobs $jobs --threads $threads --shard "\$((SLURM_ARRAY_TASK_ID + 1))/\$shards"$extra_q
 BODY
 } >"$dir/array.sbatch.tmp"
@@ -165,18 +224,18 @@ mv "$dir/array.sbatch.tmp" "$dir/array.sbatch"
 {
   cat <<HEAD
 #!/bin/bash
-# Rebuilds $out/summary.csv from the per-input results once every array task has succeeded
+# Rebuilds $merge_what from the per-input results once every array task has succeeded
 # (submitted with --dependency=afterok:ARRAYJOB).
 #SBATCH --job-name=unfold-merge
 #SBATCH --cpus-per-task=1
-#SBATCH --mem=256M
+#SBATCH --mem=$merge_mem
 #SBATCH --output=$dir/logs/merge-%j.out
 #SBATCH --error=$dir/logs/merge-%j.err
 HEAD
   opt_lines
   cat <<BODY
 set -euo pipefail
-exec $(q "$unfold_bin") batch --merge $(q "$out")
+exec $(q "$unfold_bin") $merge_cmd
 BODY
 } >"$dir/merge.sbatch.tmp"
 mv "$dir/merge.sbatch.tmp" "$dir/merge.sbatch"
@@ -205,4 +264,4 @@ fi
 mergeid=$(sbatch --parsable --dependency="afterok:$arrayid" --kill-on-invalid-dep=yes "$dir/merge.sbatch")
 mergeid=${mergeid%%;*}
 echo "merge $mergeid"
-echo "submitted merge job $mergeid after array job $arrayid; summary: $out/summary.csv" >&2
+echo "submitted merge job $mergeid after array job $arrayid; it writes $merge_what" >&2
