@@ -1,9 +1,9 @@
 package regime
 
 import (
-	"math"
 	"testing"
 
+	"unfold/internal/testsignals"
 	"unfold/models"
 )
 
@@ -31,23 +31,14 @@ func simulate(t testing.TB, name, col string, p models.Values, n int, dt float64
 	return x
 }
 
-// sine returns n samples of sin(2π t/period) + phase offset.
-func sine(n int, period float64) []float64 {
-	x := make([]float64, n)
-	for i := range x {
-		x[i] = math.Sin(2*math.Pi*float64(i)/period + 0.3)
-	}
-	return x
-}
+// sine returns n samples of sin(2π t/period + 0.3), t = 0, 1, … (internal/testsignals).
+func sine(n int, period float64) []float64 { return testsignals.Sine(n, period, 0.3) }
 
-// twoSines returns n samples of sin(ω t) + 0.8 sin(φ ω t + 1) with φ the golden mean, ω = 0.3.
+// twoSines returns n samples of sin(ω t) + 0.8 sin(φ ω t + 1) with φ the golden mean, ω = 0.3
+// (internal/testsignals).
 func twoSines(n int) []float64 {
-	x := make([]float64, n)
-	for i := range x {
-		t := float64(i)
-		x[i] = math.Sin(0.3*t) + 0.8*math.Sin(0.3*models.GoldenMean*t+1)
-	}
-	return x
+	return testsignals.Sines(n, 1, testsignals.Tone{Amp: 1, Omega: 0.3},
+		testsignals.Tone{Amp: 0.8, Omega: 0.3 * models.GoldenMean, Phase: 1})
 }
 
 // cubed returns x³ elementwise (a static monotone measurement function).
