@@ -8,25 +8,13 @@ import (
 )
 
 // simulate returns column col of the named model from package models (parameters in p, the
-// model's defaults otherwise) with n samples at sampling interval dt (0: the model's).
+// model's defaults otherwise) with n samples at sampling interval dt (0: the model's)
+// (internal/testsignals).
 func simulate(t testing.TB, name, col string, p models.Values, n int, dt float64, seed uint64) []float64 {
 	t.Helper()
-	spec, err := models.Lookup(name)
+	x, err := testsignals.Model(name, col, p, n, dt, seed)
 	if err != nil {
 		t.Fatal(err)
-	}
-	opt := spec.DefaultOptions()
-	opt.N, opt.Seed = n, seed
-	if dt > 0 {
-		opt.Dt = dt
-	}
-	tr, err := spec.Simulate(p, opt)
-	if err != nil {
-		t.Fatal(err)
-	}
-	x := tr.Column(col)
-	if x == nil {
-		x = tr.Data[0]
 	}
 	return x
 }

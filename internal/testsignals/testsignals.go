@@ -256,3 +256,28 @@ func StdDev(x []float64) float64 {
 	}
 	return math.Sqrt(ss / float64(len(x)))
 }
+
+// Model returns column col (the first column when col is "" or absent) of n samples of the
+// built-in model called name, simulated by models.Spec.Simulate at the model's default sampling
+// (models.Spec.DefaultOptions: its initial condition, transient and RK4 substeps), with the
+// parameters p laid over its defaults, sampling interval dt (0: the model's) and the given
+// seed: the signal `unfold simulate` writes.
+func Model(name, col string, p models.Values, n int, dt float64, seed uint64) ([]float64, error) {
+	spec, err := models.Lookup(name)
+	if err != nil {
+		return nil, err
+	}
+	opt := spec.DefaultOptions()
+	opt.N, opt.Seed = n, seed
+	if dt > 0 {
+		opt.Dt = dt
+	}
+	tr, err := spec.Simulate(p, opt)
+	if err != nil {
+		return nil, err
+	}
+	if x := tr.Column(col); x != nil {
+		return x, nil
+	}
+	return tr.Data[0], nil
+}
