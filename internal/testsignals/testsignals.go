@@ -80,9 +80,9 @@ func Flow(f models.Flow, init []float64, n int, s Sampling, cols ...int) [][]flo
 	return out
 }
 
-// Lorenz63 is the Lorenz (1963) flow at its usual chaotic parameters σ = 10, ρ = 28, β = 8/3
+// lorenz63 is the Lorenz (1963) flow at its usual chaotic parameters σ = 10, ρ = 28, β = 8/3
 // (E. N. Lorenz, "Deterministic nonperiodic flow", J. Atmos. Sci. 20, 130, 1963).
-var Lorenz63 = models.Lorenz{Sigma: 10, Rho: 28, Beta: 8.0 / 3}
+func lorenz63() models.Lorenz { return models.Lorenz{Sigma: 10, Rho: 28, Beta: 8.0 / 3} }
 
 // LorenzXYZ returns n samples of x, y and z of the Lorenz (1963) flow
 //
@@ -91,13 +91,13 @@ var Lorenz63 = models.Lorenz{Sigma: 10, Rho: 28, Beta: 8.0 / 3}
 // integrated and sampled as s says, from (1, 1, 1) unless s.Initial is set. Its largest
 // Lyapunov exponent is 0.9056 per time unit (CHECKS.md §2).
 func LorenzXYZ(n int, s Sampling) (x, y, z []float64) {
-	c := Flow(Lorenz63, []float64{1, 1, 1}, n, s)
+	c := Flow(lorenz63(), []float64{1, 1, 1}, n, s)
 	return c[0], c[1], c[2]
 }
 
 // LorenzX returns n samples of x of the Lorenz (1963) flow, as LorenzXYZ.
 func LorenzX(n int, s Sampling) []float64 {
-	return Flow(Lorenz63, []float64{1, 1, 1}, n, s, 0)[0]
+	return Flow(lorenz63(), []float64{1, 1, 1}, n, s, 0)[0]
 }
 
 // RosslerX returns n samples of x of the Rössler (1976) flow
@@ -157,7 +157,7 @@ func Iterate(m models.Map, init []float64, n, skip int, cols ...int) [][]float64
 //
 // (M. Hénon, "A two-dimensional mapping with a strange attractor", Commun. Math. Phys. 50, 69,
 // 1976) from (0.1, 0.1): sample i is x after skip + i iterations. Its Lyapunov exponents are
-// 0.419 and −1.623 per iteration, D2 ≈ 1.21 (CHECKS.md §2).
+// 0.419 and −1.623 per iteration (CHECKS.md §2), its correlation dimension about 1.21 (§4).
 func HenonX(n, skip int) []float64 {
 	return Iterate(models.Henon{A: 1.4, B: 0.3}, []float64{0.1, 0.1}, n, skip, 0)[0]
 }
