@@ -5,25 +5,19 @@ import (
 	"math/rand/v2"
 	"testing"
 
+	"unfold/internal/testsignals"
 	"unfold/models"
 )
 
+// simulate returns the first column of n samples of the named model at its defaults (seed 1),
+// at sampling interval dt (0: the model's) (internal/testsignals).
 func simulate(t testing.TB, name string, n int, dt float64) []float64 {
 	t.Helper()
-	spec, err := models.Lookup(name)
+	x, err := testsignals.Model(name, "", nil, n, dt, 1)
 	if err != nil {
 		t.Fatal(err)
 	}
-	opt := spec.DefaultOptions()
-	opt.N = n
-	if dt > 0 {
-		opt.Dt = dt
-	}
-	tr, err := spec.Simulate(nil, opt)
-	if err != nil {
-		t.Fatal(err)
-	}
-	return tr.Data[0]
+	return x
 }
 
 func TestHenonD2(t *testing.T) {

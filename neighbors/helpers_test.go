@@ -4,50 +4,21 @@ import (
 	"math"
 	"math/rand/v2"
 	"slices"
+
+	"unfold/internal/testsignals"
 )
 
 // This file holds the test data generators and the brute-force reference searches.
 
 // henonX returns n samples of the x coordinate of the Hénon map x' = 1 − a x² + y, y' = b x
-// (a = 1.4, b = 0.3; Hénon 1976, Commun. Math. Phys. 50, 69) after 1000 transient steps.
-func henonX(n int) []float64 {
-	const a, b = 1.4, 0.3
-	x, y := 0.1, 0.1
-	out := make([]float64, n)
-	for i := -1000; i < n; i++ {
-		if i >= 0 {
-			out[i] = x
-		}
-		x, y = 1-float64(a*float64(x*x))+y, float64(b*x)
-	}
-	return out
-}
+// (a = 1.4, b = 0.3; Hénon 1976, Commun. Math. Phys. 50, 69) from (0.1, 0.1) after 1000
+// transient steps (internal/testsignals).
+func henonX(n int) []float64 { return testsignals.HenonX(n, 1000) }
 
 // lorenzX returns n samples of x of the Lorenz (1963) system σ = 10, r = 28, β = 8/3, integrated
-// with classical RK4 at step dt, after 1000 transient steps.
+// with classical RK4 at step dt from (1, 1, 1), after 1000 transient steps (internal/testsignals).
 func lorenzX(n int, dt float64) []float64 {
-	const sigma, r, beta = 10.0, 28.0, 8.0 / 3.0
-	f := func(s [3]float64) [3]float64 {
-		return [3]float64{sigma * (s[1] - s[0]), s[0]*(r-s[2]) - s[1], s[0]*s[1] - beta*s[2]}
-	}
-	add := func(s, k [3]float64, h float64) [3]float64 {
-		return [3]float64{s[0] + h*k[0], s[1] + h*k[1], s[2] + h*k[2]}
-	}
-	s := [3]float64{1, 1, 1}
-	out := make([]float64, n)
-	for i := -1000; i < n; i++ {
-		if i >= 0 {
-			out[i] = s[0]
-		}
-		k1 := f(s)
-		k2 := f(add(s, k1, dt/2))
-		k3 := f(add(s, k2, dt/2))
-		k4 := f(add(s, k3, dt))
-		for d := range 3 {
-			s[d] += dt / 6 * (k1[d] + 2*k2[d] + 2*k3[d] + k4[d])
-		}
-	}
-	return out
+	return testsignals.LorenzX(n, testsignals.Sampling{Step: dt, Skip: 1000})
 }
 
 // delay returns the dense n×dim matrix of delay vectors of x.

@@ -8,21 +8,14 @@ import (
 
 	"gonum.org/v1/gonum/dsp/fourier"
 
+	"unfold/internal/testsignals"
 	"unfold/spectral"
 )
 
-// ar1 returns n samples of x_t = φ x_{t−1} + e_t with standard Gaussian e (after a transient).
+// ar1 returns n samples of x_t = φ x_{t−1} + e_t with standard Gaussian e (PCG stream 7 of
+// seed), started from 0 with 500 samples dropped (internal/testsignals).
 func ar1(n int, phi float64, seed uint64) []float64 {
-	rng := rand.New(rand.NewPCG(seed, 7))
-	x := make([]float64, n)
-	v := 0.0
-	for i := -500; i < n; i++ {
-		v = phi*v + rng.NormFloat64()
-		if i >= 0 {
-			x[i] = v
-		}
-	}
-	return x
+	return testsignals.AR1(n, phi, 500, rand.New(rand.NewPCG(seed, 7)))
 }
 
 func periodogram(x []float64) []float64 {

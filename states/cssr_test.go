@@ -6,6 +6,8 @@ import (
 	"math/rand/v2"
 	"strings"
 	"testing"
+
+	"unfold/internal/testsignals"
 )
 
 func h2(p float64) float64 {
@@ -139,9 +141,7 @@ func TestLogisticCritical(t *testing.T) {
 	// hμ = 1 bit (exact, by the conjugacy x = sin²(πθ) to the doubling map θ → 2θ mod 1,
 	// whose binary digits are the symbols). The float64 orbit is a pseudo-orbit of the map.
 	x := make([]uint8, 200_000)
-	v := 0.1234567
-	for i := range x {
-		v = 4 * v * (1 - v)
+	for i, v := range testsignals.Logistic(len(x), 4, 0.1234567, 1) {
 		if v >= 0.5 {
 			x[i] = 1
 		}

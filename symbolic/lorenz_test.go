@@ -4,22 +4,15 @@ import (
 	"math"
 	"testing"
 
-	"unfold/models"
+	"unfold/internal/testsignals"
 	"unfold/partition"
 )
 
 // lorenzXZ integrates the Lorenz system (10, 28, 8/3) of package models by RK4 with step h
-// from (1, 1, 1), drops t = 50 and returns x and z every step (CHECKS.md §13).
+// from (1, 1, 1), drops t = 50 and returns x and z every step, the first one step past the
+// transient (internal/testsignals; CHECKS.md §13).
 func lorenzXZ(n int, h float64) (xs, zs []float64) {
-	f := models.Lorenz{Sigma: 10, Rho: 28, Beta: 8.0 / 3}
-	rk := models.NewRK4(f)
-	s := []float64{1, 1, 1}
-	rk.Advance(s, h, int(50/h))
-	xs, zs = make([]float64, n), make([]float64, n)
-	for i := range xs {
-		rk.Step(s, h)
-		xs[i], zs[i] = s[0], s[2]
-	}
+	xs, _, zs = testsignals.LorenzXYZ(n, testsignals.Sampling{Step: h, Skip: testsignals.Steps(50, h) + 1})
 	return xs, zs
 }
 

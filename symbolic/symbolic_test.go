@@ -9,23 +9,13 @@ import (
 	"strings"
 	"testing"
 
+	"unfold/internal/testsignals"
 	"unfold/series"
 )
 
-// logistic returns n iterates of x' = 4x(1−x) from x0 = 0.3 after 1000 transient steps
-// (CHECKS.md §13).
-func logistic(n int) []float64 {
-	x := 0.3
-	for i := 0; i < 1000; i++ {
-		x = 4 * x * (1 - x)
-	}
-	out := make([]float64, n)
-	for i := range out {
-		x = 4 * x * (1 - x)
-		out[i] = x
-	}
-	return out
-}
+// logistic returns n iterates of x' = 4x(1−x) from x0 = 0.3 after 1000 transient steps, the
+// first one step past it (internal/testsignals; CHECKS.md §13).
+func logistic(n int) []float64 { return testsignals.Logistic(n, 4, 0.3, 1001) }
 
 func fairSymbols(n int, seed uint64) []uint8 {
 	rng := rand.New(rand.NewPCG(seed, 7))

@@ -7,6 +7,8 @@ import (
 	"path/filepath"
 	"strconv"
 	"testing"
+
+	"unfold/internal/testsignals"
 )
 
 // writeSignal writes a t,x CSV of the values at step dt and returns its path.
@@ -27,44 +29,15 @@ func writeSignal(t *testing.T, name string, x []float64, dt float64) string {
 	return p
 }
 
-// lorenzSignal is x of the Lorenz system (10, 28, 8/3), RK4 with dt, after 50 time units.
+// lorenzSignal is x of the Lorenz system (10, 28, 8/3), RK4 with step dt from (1, 1, 1), after
+// 50 time units (internal/testsignals).
 func lorenzSignal(n int, dt float64) []float64 {
-	s := [3]float64{1, 1, 1}
-	f := func(s [3]float64) [3]float64 {
-		return [3]float64{10 * (s[1] - s[0]), s[0]*(28-s[2]) - s[1], s[0]*s[1] - 8.0/3*s[2]}
-	}
-	add := func(a, b [3]float64, h float64) [3]float64 {
-		return [3]float64{a[0] + h*b[0], a[1] + h*b[1], a[2] + h*b[2]}
-	}
-	step := func() {
-		k1 := f(s)
-		k2 := f(add(s, k1, dt/2))
-		k3 := f(add(s, k2, dt/2))
-		k4 := f(add(s, k3, dt))
-		for i := range s {
-			s[i] += dt / 6 * (k1[i] + 2*k2[i] + 2*k3[i] + k4[i])
-		}
-	}
-	for i := 0; i < int(50/dt); i++ {
-		step()
-	}
-	x := make([]float64, n)
-	for i := range x {
-		x[i] = s[0]
-		step()
-	}
-	return x
+	return testsignals.LorenzX(n, testsignals.Sampling{Step: dt, Skip: testsignals.Steps(50, dt)})
 }
 
-func henonSignal(n int) []float64 {
-	x, y := 0.1, 0.1
-	out := make([]float64, n+1000)
-	for i := range out {
-		out[i] = x
-		x, y = 1-1.4*x*x+y, 0.3*x
-	}
-	return out[1000:]
-}
+// henonSignal is x of the Hénon map (1.4, 0.3) from (0.1, 0.1) after 1000 iterations
+// (internal/testsignals).
+func henonSignal(n int) []float64 { return testsignals.HenonX(n, 1000) }
 
 // TestLagDimEmbedAcceptance is issue 4's acceptance: lag --json, dim --json and embed --plot
 // work, with the DESIGN.md §3 keys; the PNG decodes; a map gets lag 1.

@@ -8,6 +8,8 @@ import (
 	"strconv"
 	"strings"
 	"testing"
+
+	"unfold/internal/testsignals"
 )
 
 // writeLogisticMap writes n iterates of the logistic map r = 4 from 0.3 (CHECKS.md §13) as a t,x CSV.
@@ -15,12 +17,7 @@ func writeLogisticMap(t *testing.T, dir string, n int) string {
 	t.Helper()
 	var b bytes.Buffer
 	b.WriteString("t,x\n")
-	x := 0.3
-	for i := 0; i < 1000; i++ {
-		x = 4 * x * (1 - x)
-	}
-	for i := 0; i < n; i++ {
-		x = 4 * x * (1 - x)
+	for i, x := range testsignals.Logistic(n, 4, 0.3, 1001) { // the first sample one step past 1000 dropped
 		b.WriteString(strconv.Itoa(i) + "," + strconv.FormatFloat(x, 'g', 17, 64) + "\n")
 	}
 	p := filepath.Join(dir, "logistic.csv")
