@@ -12,8 +12,9 @@ import (
 	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/vg"
 
+	"unfold/analysis"
+	"unfold/embed"
 	"unfold/regime"
-	"unfold/series"
 )
 
 type regimeOptions struct {
@@ -81,84 +82,17 @@ samples after subsampling).`,
 
 // addRegimeFlags binds the flags of `regime` (besides the input flags) to o, with their defaults.
 func addRegimeFlags(f *pflag.FlagSet, o *regimeOptions) {
-	f.IntVar(&o.lag, "lag", 0, "delay in samples (default: chosen from the mutual information)")
-	f.IntVar(&o.dim, "dim", 0, "embedding dimension (default: chosen by false neighbours and Cao's E1)")
-	f.IntVar(&o.theiler, "theiler", 0, "Theiler window in samples (default: 1/e decay time of the autocorrelation)")
-	f.IntVar(&o.surrogates, "surrogates", 19, "number of IAAFT surrogates (19: one-sided 5 %; 39: two-sided 5 %)")
-	f.BoolVar(&o.noLyap, "no-lyapunov", false, "leave the Lyapunov exponent out of the evidence")
+	d := analysis.DefaultRegimeOptions()
+	f.IntVar(&o.lag, "lag", d.Lag, "delay in samples (default: chosen from the mutual information)")
+	f.IntVar(&o.dim, "dim", d.Dim, "embedding dimension (default: chosen by false neighbours and Cao's E1)")
+	f.IntVar(&o.theiler, "theiler", d.Theiler, "Theiler window in samples (default: 1/e decay time of the autocorrelation; 0 excludes only the point itself)")
+	f.IntVar(&o.surrogates, "surrogates", d.Surrogates, "number of IAAFT surrogates (19: one-sided 5 %; 39: two-sided 5 %)")
+	f.BoolVar(&o.noLyap, "no-lyapunov", d.NoLyapunov, "leave the Lyapunov exponent out of the evidence")
 	f.StringVar(&o.plot, "plot", "", "draw the evidence: the spectrum with its lines and the surrogate distributions (.png or .svg)")
 }
 
-type regimeParams struct {
-	Column     string `json:"column"`
-	Lag        int    `json:"lag"`
-	LagMethod  string `json:"lag_method"`
-	Dim        int    `json:"dim"`
-	DimMethod  string `json:"dim_method"`
-	Theiler    int    `json:"theiler"`
-	Surrogates int    `json:"surrogates"`
-	Subsample  int    `json:"zero_one_subsample"`
-	Seed       uint64 `json:"seed"`
-	// LyapunovFrom is set in the report when λ1 is the lyapunov stage's (not estimated here).
-	LyapunovFrom string `json:"lyapunov_from,omitempty"`
-}
-
-type regimeResult struct {
-	Regime     string                 `json:"regime"`
-	Confidence float64                `json:"confidence"`
-	Rule       string                 `json:"rule"`
-	Evidence   map[string]regime.Item `json:"evidence"`
-	Tests      []*regime.RankTest     `json:"surrogate_tests"`
-	Cautions   []string               `json:"cautions"`
-}
-
-// checkRegimeOptions validates the flags of `regime`.
-func checkRegimeOptions(o *regimeOptions) error {
-	if o.lag < 0 || o.dim < 0 || o.theiler < 0 || o.surrogates < 1 {
-		return usagef("regime: want --lag, --dim, --theiler ≥ 0 and --surrogates ≥ 1")
-	}
-	return nil
-}
-
-// regimeCompute gathers the evidence of s and decides the regime (choosing what o does not
-// give), and returns the analysis (for the renderers) with the JSON parameters and body of
-// `regime`; the command and the report both use it. lagMethod and dimMethod name the rules that
-// chose o.lag and o.dim when a caller chose them already (the report's earlier stages); ""
-// means given or chosen here. lyap, when not nil, is λ1 with its interval estimated by the
-// caller (the report's lyapunov stage), used instead of Analyze's own estimate and recorded
-// as "lyapunov_from": "lyapunov stage" in the parameters.
-func (a *app) regimeCompute(path string, s *series.Series, o *regimeOptions, lagMethod, dimMethod string, lyap *regime.Exponent) (*regime.Analysis, regimeParams, regimeResult, error) {
-	if err := checkRegimeOptions(o); err != nil {
-		return nil, regimeParams{}, regimeResult{}, err
-	}
-	if err := series.CheckVariable(s.Values); err != nil {
-		return nil, regimeParams{}, regimeResult{}, err
-	}
-	an, err := regime.Analyze(s.Values, s.Dt, regime.Options{Lag: o.lag, Dim: o.dim, Theiler: o.theiler,
-		Surrogates: o.surrogates, Seed: a.global.Seed, Lyapunov: lyap, NoLyapunov: o.noLyap, Threads: a.threads(),
-		Progress: a.progress("surrogate tests")})
-	if err != nil {
-		return nil, regimeParams{}, regimeResult{}, noAnswer(fmt.Errorf("regime: %s: %w", path, err))
-	}
-	ev, v := an.Evidence, an.Verdict
-	if lagMethod == "" {
-		lagMethod = an.LagMethod
-	}
-	if dimMethod == "" {
-		dimMethod = an.DimMethod
-	}
-	sub := 0
-	if ev.ZeroOne != nil {
-		sub = ev.ZeroOne.Subsample
-	}
-	p := regimeParams{Column: s.Name, Lag: ev.Lag, LagMethod: lagMethod, Dim: ev.Dim, DimMethod: dimMethod,
-		Theiler: ev.Theiler, Surrogates: o.surrogates, Subsample: sub, Seed: a.global.Seed}
-	if lyap != nil && !o.noLyap {
-		p.LyapunovFrom = "lyapunov stage"
-	}
-	res := regimeResult{Regime: v.Regime, Confidence: v.Confidence, Rule: v.Rule,
-		Evidence: v.Evidence, Tests: []*regime.RankTest{ev.Prediction, ev.Reversal}, Cautions: v.Cautions}
-	return an, p, res, nil
+func (o *regimeOptions) options() analysis.RegimeOptions {
+	return analysis.RegimeOptions{Lag: o.lag, Dim: o.dim, Theiler: o.theiler, Surrogates: o.surrogates, NoLyapunov: o.noLyap}
 }
 
 // evidenceRows are the rows of the evidence table: the item's name, then "points to (weight):
@@ -181,14 +115,14 @@ func (a *app) runRegime(path string, o *regimeOptions) error {
 	if err := checkFigurePath(o.plot); err != nil {
 		return err
 	}
-	if err := checkRegimeOptions(o); err != nil {
+	if err := analysis.CheckRegime(o.options()); err != nil {
 		return err
 	}
 	s, in, err := a.loadInput(path, &o.in)
 	if err != nil {
 		return err
 	}
-	an, p, res, err := a.regimeCompute(path, s, o, "", "", nil)
+	an, p, res, err := a.env(&o.in).Regime(path, s, o.options(), analysis.RegimeEvidence{})
 	if err != nil {
 		return err
 	}
@@ -199,7 +133,7 @@ func (a *app) runRegime(path string, o *regimeOptions) error {
 	if an.DimMethod != "given" {
 		a.notef("dimension %d chosen (%s)", ev.Dim, an.DimMethod)
 	}
-	if o.theiler == 0 {
+	if o.theiler == embed.TheilerAuto {
 		a.notef("Theiler window %d samples (autocorrelation 1/e decay time)", ev.Theiler)
 	}
 	if o.plot != "" {

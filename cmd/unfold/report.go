@@ -2,8 +2,10 @@ package main
 
 import (
 	"bytes"
+	"context"
 	"crypto/sha256"
 	"encoding/hex"
+	"encoding/json"
 	"errors"
 	"fmt"
 	"os"
@@ -16,6 +18,7 @@ import (
 	"github.com/spf13/pflag"
 	"gonum.org/v1/plot/vg"
 
+	"unfold/analysis"
 	"unfold/demo"
 	"unfold/embed"
 	"unfold/report"
@@ -244,7 +247,8 @@ func (a *app) runReport(cmd *cobra.Command, path string, args []string, o *repor
 	return nil
 }
 
-// runChain runs the report's stages on s; with progress, one line per stage goes to stderr.
+// runChain runs the chain (analysis.Run) on s and renders every stage's section; with
+// progress, one line per stage goes to stderr.
 func (a *app) runChain(cmd *cobra.Command, args []string, path, title string, s *series.Series, in *inputInfo, o *reportOptions, progress bool) *report.Result {
 	p := reportParams{prepParams: newPrepParams(s, &o.in), Lag: o.lag, Dim: o.dim, MaxDim: o.maxDim, Theiler: o.theiler,
 		MaxLag: o.maxLag, MI: o.mi, Norm: o.norm, Azimuth: o.azimuth, Elevation: o.elevation, PNG: o.png, Threads: a.threads()}
@@ -254,9 +258,12 @@ func (a *app) runChain(cmd *cobra.Command, args []string, path, title string, s 
 	if path == "" {
 		path = in.Path
 	}
-	var after func(string, time.Duration, error)
+	theiler, az, el := o.theiler, o.azimuth, o.elevation
+	opt := analysis.Options{Lag: o.lag, Dim: o.dim, MaxDim: o.maxDim, Theiler: &theiler, MaxLag: o.maxLag, MI: o.mi,
+		Norm: o.norm, Azimuth: &az, Elevation: &el, Threads: a.threads(), Seed: a.global.Seed, Path: path, Input: in,
+		Version: versionString(), Read: o.in.read, Prep: o.in.prep, Notef: a.notef, Progress: a.progress}
 	if progress {
-		after = func(key string, took time.Duration, err error) {
+		opt.After = func(key string, took time.Duration, err error) {
 			if err != nil {
 				a.notef("  %-9s %7.2f s  no answer: %v", key, took.Seconds(), err)
 				return
@@ -264,56 +271,47 @@ func (a *app) runChain(cmd *cobra.Command, args []string, path, title string, s 
 			a.notef("  %-9s %7.2f s", key, took.Seconds())
 		}
 	}
-	return report.Run(h, a.reportStages(path, s, in, o), nil, after)
+	res, err := analysis.Run(context.Background(), s, opt)
+	if res == nil {
+		res = &analysis.Result{Stages: []analysis.StageRecord{{Key: "inspect", Status: analysis.StatusError, Error: err.Error()}}}
+	}
+	return report.Run(h, a.reportStages(path, s, o, res), nil, nil)
 }
 
-// chainState carries the choices of earlier stages to the later ones.
-type chainState struct {
-	lag                  int
-	lagMethod, dimMethod string
-	dim                  int
-	// theiler is the Theiler window in samples (-1 until given or chosen by the dim stage) and
-	// theilerFrom how it was chosen ("" when not yet known).
-	theiler     int
-	theilerFrom string
-	// title names the input in the figure titles.
-	title string
-	// lambda is λ1 of the lyapunov stage (nats per time unit; nil when it gave none) and
-	// lambdaInterval its interval; the regime stage uses them as its λ1 evidence.
-	lambda         *float64
-	lambdaInterval [2]float64
+// stageErr is the recorded error of the stage key of res (nil when it gave an answer).
+func stageErr(res *analysis.Result, key string) error {
+	r := res.Stage(key)
+	if r == nil {
+		return errors.New(key + ": did not run")
+	}
+	if r.Status != analysis.StatusOK {
+		return errors.New(r.Error)
+	}
+	return nil
 }
 
-// reportStages builds the stage list from the same functions the single commands use, so that
-// each stage's JSON is what that command prints with --json.
-func (a *app) reportStages(path string, s *series.Series, in *inputInfo, o *reportOptions) []report.Stage {
-	st := &chainState{lag: o.lag, dim: o.dim, theiler: o.theiler}
-	if st.theiler >= 0 {
-		st.theilerFrom = "given"
+// stageTime is the compute time of the stage key of res.
+func stageTime(res *analysis.Result, key string) time.Duration {
+	if r := res.Stage(key); r != nil {
+		return time.Duration(r.Seconds * float64(time.Second))
 	}
-	if st.lag > 0 {
-		st.lagMethod = "given"
-	}
-	if st.dim > 0 {
-		st.dimMethod = "given"
-	}
+	return 0
+}
+
+// reportStages renders the stages of res as the page's sections: each stage's JSON object is
+// what its single command prints with --json.
+func (a *app) reportStages(path string, s *series.Series, o *reportOptions, res *analysis.Result) []report.Stage {
 	fig := figureOf(path, s)
 	if o.demo {
 		fig.Title = demo.Name
 	}
-	st.title = fig.Title
-	envelope := func(command string, params, body any) ([]byte, error) {
-		return buildJSON(command, in, params, body)
-	}
-	sym := &symbolStream{} // the symbols stage's stream, read by the entropy stage
 	stages := []report.Stage{
 		{Key: "inspect", Title: "The signal", Run: func() (*report.Section, error) {
-			io := &inspectOptions{in: o.in}
-			p, res, sm, err := inspectCompute(path, s, io)
-			if err != nil {
-				return nil, err
+			if res.Inspect == nil {
+				return nil, stageErr(res, "inspect")
 			}
-			js, err := envelope("inspect", p, res)
+			sm := res.Inspect.Summary
+			js, err := json.Marshal(res.Inspect)
 			if err != nil {
 				return nil, err
 			}
@@ -340,17 +338,11 @@ func (a *app) reportStages(path string, s *series.Series, in *inputInfo, o *repo
 			}}, nil
 		}},
 		{Key: "lag", Title: "Delay: mutual information and autocorrelation", Run: func() (*report.Section, error) {
-			lo := &lagOptions{}
-			addLagFlags(pflag.NewFlagSet("lag", pflag.ContinueOnError), lo)
-			lo.in, lo.maxLag, lo.mi = o.in, o.maxLag, o.mi
-			c, p, res, err := a.lagCompute(path, s, lo)
-			if err != nil {
-				return nil, err
+			if res.Lag == nil {
+				return nil, stageErr(res, "lag")
 			}
-			if st.lag == 0 {
-				st.lag, st.lagMethod = c.Lag, c.Method
-			}
-			js, err := envelope("lag", p, res)
+			c, p, b := res.Lag.Choice, res.Lag.Params, res.Lag.Body
+			js, err := json.Marshal(res.Lag)
 			if err != nil {
 				return nil, err
 			}
@@ -359,31 +351,25 @@ func (a *app) reportStages(path string, s *series.Series, in *inputInfo, o *repo
 				return nil, fmt.Errorf("lag: figure: %w", err)
 			}
 			sum := [][2]string{
-				{"chosen lag", fmt.Sprintf("%d samples = %s time units", c.Lag, fmtG(res.LagTime))},
+				{"chosen lag", fmt.Sprintf("%d samples = %s time units", c.Lag, fmtG(b.LagTime))},
 				{"rule", c.Method + ": " + c.Reason},
 				{"estimator", p.Estimator},
-				{"autocorrelation", acfText(res.AutocorrelationZero, res.AutocorrelationDecay, p.MaxLag)},
-				{"suggested Theiler window", strconv.Itoa(res.Theiler) + " samples"},
+				{"autocorrelation", acfText(b.AutocorrelationZero, b.AutocorrelationDecay, p.MaxLag)},
+				{"suggested Theiler window", strconv.Itoa(b.Theiler) + " samples"},
 			}
 			if o.lag > 0 {
 				sum = append(sum, [2]string{"lag used downstream", strconv.Itoa(o.lag) + " samples (given with --lag)"})
 			}
-			return &report.Section{JSON: js, Summary: sum, Cautions: res.Cautions, Figures: []report.Figure{{Name: "lag",
+			return &report.Section{JSON: js, Summary: sum, Cautions: b.Cautions, Figures: []report.Figure{{Name: "lag",
 				Caption: "Mutual information (bits) and autocorrelation against the delay; the chosen lag is marked.",
 				Width:   9 * vg.Inch, Height: 7.5 * vg.Inch, Rows: rows}}}, nil
 		}},
 		{Key: "dim", Title: "Dimension: false neighbours and Cao's E1/E2", Run: func() (*report.Section, error) {
-			do := &dimOptions{}
-			addDimFlags(pflag.NewFlagSet("dim", pflag.ContinueOnError), do)
-			do.in, do.lag, do.theiler, do.maxDim, do.norm = o.in, st.lag, o.theiler, o.maxDim, o.norm
-			c, p, res, err := a.dimCompute(path, s, do, st.lagMethod)
-			if err != nil {
-				return nil, err
+			if res.Dim == nil {
+				return nil, stageErr(res, "dim")
 			}
-			if st.theiler < 0 {
-				st.theiler, st.theilerFrom = p.Theiler, p.TheilerFrom
-			}
-			js, err := envelope("dim", p, res)
+			c, p, b := res.Dim.Choice, res.Dim.Params, res.Dim.Body
+			js, err := json.Marshal(res.Dim)
 			if err != nil {
 				return nil, err
 			}
@@ -395,7 +381,7 @@ func (a *app) reportStages(path string, s *series.Series, in *inputInfo, o *repo
 			if c.Dimension > 0 {
 				chosen = strconv.Itoa(c.Dimension)
 			}
-			sec := &report.Section{JSON: js, Cautions: res.Cautions, Summary: [][2]string{
+			return &report.Section{JSON: js, Cautions: b.Cautions, Summary: [][2]string{
 				{"chosen dimension", chosen},
 				{"rule", c.Method + ": " + c.Reason},
 				{"false neighbours / Cao", dimText(c.FNNDim, c.MaxDim) + " / " + dimText(c.CaoDim, c.MaxDim)},
@@ -403,25 +389,14 @@ func (a *app) reportStages(path string, s *series.Series, in *inputInfo, o *repo
 				{"lag, Theiler window", fmt.Sprintf("%d samples (%s), %d samples (%s)", p.Lag, p.LagMethod, p.Theiler, p.TheilerFrom)},
 			}, Figures: []report.Figure{{Name: "dim",
 				Caption: "False-neighbour fraction and Cao's E1, E2 against the dimension; the chosen dimension is marked.",
-				Width:   9 * vg.Inch, Height: 7.5 * vg.Inch, Rows: rows}}}
-			if c.Dimension == 0 {
-				return sec, noAnswer(fmt.Errorf("dim: %s", c.Reason))
-			}
-			if st.dim == 0 {
-				st.dim, st.dimMethod = c.Dimension, c.Method
-			}
-			return sec, nil
+				Width:   9 * vg.Inch, Height: 7.5 * vg.Inch, Rows: rows}}}, stageErr(res, "dim")
 		}},
 		{Key: "embed", Title: "State-space picture", Run: func() (*report.Section, error) {
-			eo := &embedOptions{}
-			addEmbedFlags(pflag.NewFlagSet("embed", pflag.ContinueOnError), eo)
-			eo.in, eo.lag, eo.dim, eo.theiler, eo.maxDim = o.in, st.lag, st.dim, o.theiler, o.maxDim
-			eo.azimuth, eo.elevation, eo.plot = o.azimuth, o.elevation, "figures/embed.svg"
-			e, _, p, res, err := a.embedCompute(path, s, eo, st.lagMethod, st.dimMethod)
-			if err != nil {
-				return nil, err
+			if res.Embed == nil {
+				return nil, stageErr(res, "embed")
 			}
-			js, err := envelope("embed", p, res)
+			e, p, b := res.Embed.Embedding, res.Embed.Params, res.Embed.Body
+			js, err := json.Marshal(res.Embed)
 			if err != nil {
 				return nil, err
 			}
@@ -435,21 +410,21 @@ func (a *app) reportStages(path string, s *series.Series, in *inputInfo, o *repo
 			if len(rows[0]) > 1 {
 				w, h = 11*vg.Inch, 5*vg.Inch
 			}
-			return &report.Section{JSON: js, Cautions: res.Cautions, Summary: [][2]string{
-				{"delay vectors", fmt.Sprintf("%d of dimension %d at lag %d samples", res.Vectors, res.Dimension, res.Lag)},
+			return &report.Section{JSON: js, Cautions: b.Cautions, Summary: [][2]string{
+				{"delay vectors", fmt.Sprintf("%d of dimension %d at lag %d samples", b.Vectors, b.Dimension, b.Lag)},
 				{"lag / dimension from", p.LagMethod + " / " + p.DimMethod},
 			}, Figures: []report.Figure{{Name: "embed",
 				Caption: "The delay plot x(t+τ) against x(t) and, for m ≥ 3, an oblique view of (x(t), x(t+τ), x(t+2τ)).",
 				Width:   w, Height: h, Rows: rows}}}, nil
 		}},
-		a.lyapunovStage(path, s, o, st, envelope),
-		a.fractalStage(path, s, o, st, envelope),
-		a.regimeStage(path, s, o, st, envelope),
-		// Every stage of the chain (issue 8) is in; each is built from the same compute function
-		// as its single command, under the keys of DESIGN.md §3. summary.csv reads lambda_max,
-		// d2, regime and confidence from those keys.
-		a.symbolsStage(path, s, in, o, st, sym, envelope),
-		a.entropyStage(sym),
+		lyapunovStage(res, fig.Title),
+		fractalStage(res, fig.Title),
+		regimeStage(res, fig.Title),
+		symbolsStage(res, fig.Title),
+		entropyStage(res),
+	}
+	for i := range stages {
+		stages[i].Took = stageTime(res, stages[i].Key)
 	}
 	return stages
 }

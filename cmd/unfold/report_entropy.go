@@ -1,56 +1,43 @@
 package main
 
 import (
-	"bytes"
-	"errors"
+	"encoding/json"
 	"fmt"
 	"image/color"
 	"math"
 	"strconv"
 
-	"github.com/spf13/pflag"
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
 
+	"unfold/analysis"
 	"unfold/report"
 )
 
-// entropyStreamName is the "input.path" of the report's entropy object: the stream is the
-// symbols stage's, kept in memory.
-const entropyStreamName = "symbols stage stream (in memory)"
-
-// entropyStage is the report's "entropy" stage: `unfold entropy` with its defaults on the
-// stream the symbols stage kept in sym (read back and checked against its sidecar, as the
-// command reads a file). The figure shows the block entropies H(L) and the entropy-rate
-// estimates h(L) against the word length.
-func (a *app) entropyStage(sym *symbolStream) report.Stage {
+// entropyStage renders the chain's "entropy" stage: the block entropies H(L) and the
+// entropy-rate estimates h(L) against the word length.
+func entropyStage(res *analysis.Result) report.Stage {
 	return report.Stage{Key: "entropy", Title: "Entropy of the symbol stream", Run: func() (*report.Section, error) {
-		if sym.sidecar == nil {
-			return nil, noAnswer(errors.New("entropy: no symbol stream (the symbols stage gave no answer)"))
+		if res.Entropy == nil {
+			return nil, stageErr(res, "entropy")
 		}
-		eo := &entropyOptions{}
-		addEntropyFlags(pflag.NewFlagSet("entropy", pflag.ContinueOnError), eo)
-		in, p, res, err := a.entropyCompute(entropyStreamName, bytes.NewReader(sym.stream), sym.sidecar, eo)
+		in, p, b := res.Entropy.Input, res.Entropy.Params, res.Entropy.Body
+		js, err := json.Marshal(res.Entropy)
 		if err != nil {
 			return nil, err
 		}
-		// the object's "input" is the stream, as `unfold entropy` prints it (its "source" is the report's input)
-		js, err := buildJSON("entropy", in, p, res)
-		if err != nil {
-			return nil, err
-		}
-		rows, err := entropyFigure(p, res)
+		rows, err := entropyFigure(p, b)
 		if err != nil {
 			return nil, fmt.Errorf("entropy: figure: %w", err)
 		}
 		g := func(v float64) string { return strconv.FormatFloat(v, 'f', 4, 64) }
-		return &report.Section{JSON: js, Cautions: res.Cautions, Summary: [][2]string{
+		return &report.Section{JSON: js, Cautions: b.Cautions, Summary: [][2]string{
 			{"stream", fmt.Sprintf("%d symbols over %q from the symbols stage (in memory)", in.Samples, p.Alphabet)},
-			{"entropy rate", g(res.EntropyRate) + " bits/symbol at L = " + strconv.Itoa(p.RateLength)},
-			{"excess entropy", g(res.ExcessEntropy) + " bits"},
-			{"LZ76", fmt.Sprintf("%s normalised (%d phrases)", g(res.LZ76), res.LZ76Detail.Phrases)},
+			{"entropy rate", g(b.EntropyRate) + " bits/symbol at L = " + strconv.Itoa(p.RateLength)},
+			{"excess entropy", g(b.ExcessEntropy) + " bits"},
+			{"LZ76", fmt.Sprintf("%s normalised (%d phrases)", g(b.LZ76), b.LZ76Detail.Phrases)},
 			{"estimator", p.Estimator + ", word lengths 1 … " + strconv.Itoa(p.MaxLength)},
 			{"estimate", p.Extrapolation},
 		}, Figures: []report.Figure{{Name: "entropy",
@@ -61,7 +48,7 @@ func (a *app) entropyStage(sym *symbolStream) report.Stage {
 }
 
 // entropyFigure draws H(L) and h(L) side by side.
-func entropyFigure(p entropyParams, res entropyResult) ([][]*plot.Plot, error) {
+func entropyFigure(p analysis.EntropyParams, res analysis.EntropyResult) ([][]*plot.Plot, error) {
 	k := float64(len([]rune(p.Alphabet)))
 	blue := color.RGBA{R: 0x1f, G: 0x5f, B: 0xa8, A: 0xff}
 	grey := color.RGBA{R: 0x80, G: 0x80, B: 0x80, A: 0xff}

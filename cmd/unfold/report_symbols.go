@@ -1,78 +1,45 @@
 package main
 
 import (
-	"bytes"
+	"encoding/json"
 	"fmt"
 	"image/color"
 	"strconv"
 	"strings"
 
-	"github.com/spf13/pflag"
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/vg"
 
-	"unfold/demo"
+	"unfold/analysis"
 	"unfold/report"
-	"unfold/series"
-	"unfold/symbolic"
 )
-
-// symbolStream hands the symbols stage's stream to the entropy stage. The report package writes
-// only result.json, report.html and figures/ into the output directory, so the stream and its
-// sidecar are kept in memory (exactly the bytes `unfold symbols -o` would write).
-type symbolStream struct {
-	stream  []byte
-	sidecar *symbolic.Sidecar
-}
 
 // symbolsMapPoints is the most pairs (x_n, x_{n+1}) drawn in the report's return map; a
 // map-like record of 10^5 samples would otherwise put 10^5 circles into the page.
 const symbolsMapPoints = 5000
 
-// symbolsStage is the report's "symbols" stage: `unfold symbols` with its defaults (map or flow
-// decided from the data, a flow cut at its Poincaré section, the generating-like partition
-// search) on the lag chosen upstream (st.lag; the section and the partition do not use the
-// dimension). The figure is the return map of the partitioned values with the cut(s) marked.
-// The stream is kept in sym for the entropy stage.
-func (a *app) symbolsStage(path string, s *series.Series, in *inputInfo, o *reportOptions, st *chainState, sym *symbolStream,
-	envelope func(command string, params, body any) ([]byte, error)) report.Stage {
+// symbolsStage renders the chain's "symbols" stage: the return map of the partitioned values
+// with the cut(s) marked. The stream is kept in memory for the entropy stage.
+func symbolsStage(res *analysis.Result, title string) report.Stage {
 	return report.Stage{Key: "symbols", Title: "Symbols: return map and partition", Run: func() (*report.Section, error) {
-		so := &symbolsOptions{}
-		addSymbolsFlags(pflag.NewFlagSet("symbols", pflag.ContinueOnError), so)
-		so.in, so.lag = o.in, st.lag
-		if err := checkSymbolsOptions(so, false); err != nil {
-			return nil, err
+		if res.Symbols == nil {
+			return nil, stageErr(res, "symbols")
 		}
-		run, p, err := a.symbolsCompute(path, s, so, st.lagMethod)
+		run, p, b, sc := res.Symbols.Run, res.Symbols.Params, res.Symbols.Body, res.Symbols.Sidecar
+		js, err := json.Marshal(res.Symbols)
 		if err != nil {
 			return nil, err
-		}
-		var buf bytes.Buffer
-		sc, err := run.writeSymbols(&buf, "the report's symbol stream", symbolic.Source{Path: in.Path, SHA256: in.SHA256},
-			"unfold report (symbols stage)")
-		if err != nil {
-			return nil, err
-		}
-		sym.stream, sym.sidecar = buf.Bytes(), sc
-		res := run.result(sc, "", "")
-		js, err := envelope("symbols", p, res)
-		if err != nil {
-			return nil, err
-		}
-		title := figureOf(path, s).Title
-		if o.demo {
-			title = demo.Name
 		}
 		pl, drawn, err := symbolsFigure(run, title)
 		if err != nil {
 			return nil, fmt.Errorf("symbols: figure: %w", err)
 		}
 		g := func(v float64) string { return strconv.FormatFloat(v, 'g', 4, 64) }
-		part := run.part
+		part := run.Part
 		from := "the samples (map-like record)"
-		if run.applied == "section" {
-			from = fmt.Sprintf("%d section crossings, value %s", len(run.values), run.valueName)
+		if run.Applied == "section" {
+			from = fmt.Sprintf("%d section crossings, value %s", len(run.Values), run.ValueName)
 			if p.Section != nil && p.Section.Method == "hyperplane" {
 				from += fmt.Sprintf(" (plane through the %s, %s, lag %d samples from %s)", p.Section.LevelFrom, p.Section.Direction,
 					p.Section.Lag, p.Section.LagMethod)
@@ -83,9 +50,9 @@ func (a *app) symbolsStage(path string, s *series.Series, in *inputInfo, o *repo
 			lagArg = " --lag " + strconv.Itoa(p.Section.Lag)
 		}
 		sum := [][2]string{
-			{"record", run.rec.Kind + " (" + run.recFrom + "): " + run.rec.Reason},
+			{"record", run.Rec.Kind + " (" + run.RecFrom + "): " + run.Rec.Reason},
 			{"symbols from", from},
-			{"partition", fmt.Sprintf("%s, %d symbols %q, cut(s) at %s", part.Kind, part.K(), run.alphabet, thresholdText(part.Thresholds))},
+			{"partition", fmt.Sprintf("%s, %d symbols %q, cut(s) at %s", part.Kind, part.K(), run.Alphabet, thresholdText(part.Thresholds))},
 			{"score", g(part.Score) + " (symbolic false-neighbour fraction; lower is better)"},
 			{"entropy rate at the search", g(part.EntropyRate) + " bits/symbol"},
 			{"symbols", fmt.Sprintf("%d (counts %s)", sc.Count, countsText(sc.Counts))},
@@ -93,14 +60,14 @@ func (a *app) symbolsStage(path string, s *series.Series, in *inputInfo, o *repo
 				"report.html and figures/, so \"output\" and \"sidecar\" are empty; to write the stream and its sidecar run " +
 				"unfold symbols" + lagArg + " -o OUT.sym on the input"},
 		}
-		if run.rule != "" {
-			sum = append(sum, [2]string{"rule", run.rule})
+		if run.Rule != "" {
+			sum = append(sum, [2]string{"rule", run.Rule})
 		}
 		caption := "Return map x_{n+1} against x_n of the values the partition is applied to; the partition's cut(s) are the red lines, the dashed line is the diagonal."
-		if drawn < len(run.values)-1 {
-			caption += fmt.Sprintf(" The first %d of %d pairs are drawn.", drawn, len(run.values)-1)
+		if drawn < len(run.Values)-1 {
+			caption += fmt.Sprintf(" The first %d of %d pairs are drawn.", drawn, len(run.Values)-1)
 		}
-		return &report.Section{JSON: js, Summary: sum, Cautions: res.Cautions, Figures: []report.Figure{{Name: "symbols",
+		return &report.Section{JSON: js, Summary: sum, Cautions: b.Cautions, Figures: []report.Figure{{Name: "symbols",
 			Caption: caption, Width: 6 * vg.Inch, Height: 6 * vg.Inch, Rows: [][]*plot.Plot{{pl}}}}}, nil
 	}}
 }
@@ -108,12 +75,12 @@ func (a *app) symbolsStage(path string, s *series.Series, in *inputInfo, o *repo
 // symbolsFigure is the return map of run's values (at most symbolsMapPoints pairs) with every
 // cut of the partition drawn as a vertical and a horizontal line; it returns the pairs drawn.
 func symbolsFigure(run *symbolsRun, title string) (*plot.Plot, int, error) {
-	v := run.values
+	v := run.Values
 	if len(v) < 2 {
 		return nil, 0, fmt.Errorf("%d values are too few for a return map", len(v))
 	}
 	v = v[:min(len(v), symbolsMapPoints+1)]
-	p, err := returnMapPlot(v, run.valueName, title)
+	p, err := returnMapPlot(v, run.ValueName, title)
 	if err != nil {
 		return nil, 0, err
 	}
@@ -122,7 +89,7 @@ func symbolsFigure(run *symbolsRun, title string) (*plot.Plot, int, error) {
 		lo, hi = min(lo, x), max(hi, x)
 	}
 	red := color.RGBA{R: 0xc0, G: 0x20, B: 0x20, A: 0xff}
-	for i, c := range run.part.Thresholds {
+	for i, c := range run.Part.Thresholds {
 		for _, seg := range []plotter.XYs{{{X: c, Y: lo}, {X: c, Y: hi}}, {{X: lo, Y: c}, {X: hi, Y: c}}} {
 			l, err := plotter.NewLine(seg)
 			if err != nil {

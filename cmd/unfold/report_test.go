@@ -293,26 +293,23 @@ func TestReportSameJSONAsCommands(t *testing.T) {
 			t.Errorf("report's %q object differs from `unfold %s --json`", c, c)
 		}
 	}
-	// regime on the embedding the report chose, with λ1 from its lyapunov stage: the same
-	// object as `unfold regime --json --lag L --dim M --theiler W` but for the parameters
-	// naming how the embedding and λ1 were chosen (λ1 of the record's first 20 000 samples
-	// with the lyapunov defaults is what regime estimates itself; this record is shorter)
+	// one embedding and one D2 (issue 19): regime works in the embedding the report chose (the
+	// Theiler window of dim, lyapunov and fractal) and takes λ1 from the lyapunov stage and D2
+	// from the fractal stage
 	rp, _ := lookup(m, "regime.parameters").(map[string]any)
-	if rp == nil || rp["lyapunov_from"] != "lyapunov stage" {
-		t.Fatalf("regime parameters %v: want lyapunov_from = lyapunov stage", rp)
+	if rp == nil || rp["lyapunov_from"] != "lyapunov stage" || rp["dimension_from"] != "fractal stage" {
+		t.Fatalf("regime parameters %v: want lyapunov_from = lyapunov stage, dimension_from = fractal stage", rp)
 	}
-	so, se, code := runCLI(t, "", "regime", "--json", "-q", "--threads", "2", "--lag", fmt.Sprint(rp["lag"]),
-		"--dim", fmt.Sprint(rp["dim"]), "--theiler", fmt.Sprint(rp["theiler"]), evil)
-	if code != 0 {
-		t.Fatalf("regime: exit %d: %s", code, se)
+	for _, c := range []string{"dim", "lyapunov", "fractal"} {
+		if w := lookup(m, c+".parameters.theiler"); w != rp["theiler"] {
+			t.Errorf("%s's Theiler window %v, regime's %v: want one window", c, w, rp["theiler"])
+		}
 	}
-	want := decode(t, so)
-	for _, k := range []string{"lag_method", "dim_method", "lyapunov_from"} {
-		delete(rp, k)
-		delete(want["parameters"].(map[string]any), k)
+	if d2, ev := lookup(m, "fractal.d2"), lookup(m, "regime.evidence.correlation_dimension.value"); d2 == nil || d2 != ev {
+		t.Errorf("regime's D2 evidence %v, fractal's D2 %v: want the same number", ev, d2)
 	}
-	if !reflect.DeepEqual(m["regime"], want) {
-		t.Errorf("report's regime object differs from `unfold regime --json` with its embedding")
+	if l1, ev := lookup(m, "lyapunov.lambda_max"), lookup(m, "regime.evidence.lyapunov.value"); l1 == nil || l1 != ev {
+		t.Errorf("regime's λ1 evidence %v, lyapunov's λ1 %v: want the same number", ev, l1)
 	}
 	page, err := os.ReadFile(filepath.Join(out, "report.html"))
 	if err != nil {
