@@ -7,7 +7,6 @@ import (
 	"io/fs"
 	"os"
 	"runtime"
-	"runtime/debug"
 	"strings"
 	"text/tabwriter"
 
@@ -154,24 +153,6 @@ func (a *app) progress(label string) func(done, total int) {
 			bar = nil
 		}
 	}
-}
-
-// versionString is the text of `unfold --version` and the "version" field of JSON output.
-func versionString() string {
-	c := commit
-	if c == "" {
-		if info, ok := debug.ReadBuildInfo(); ok {
-			for _, s := range info.Settings {
-				if s.Key == "vcs.revision" && len(s.Value) >= 12 {
-					c = s.Value[:12]
-				}
-			}
-		}
-	}
-	if c == "" {
-		c = "unknown"
-	}
-	return version + " (commit " + c + ")"
 }
 
 // inputInfo is the "input" object of every JSON output (DESIGN.md §3).

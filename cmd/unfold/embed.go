@@ -1,22 +1,18 @@
 package main
 
 import (
-	"bufio"
 	"fmt"
 	"path/filepath"
 	"strconv"
 	"strings"
 
-	"codeberg.org/sbinet/npyio"
 	"github.com/spf13/cobra"
 	"github.com/spf13/pflag"
-	"gonum.org/v1/gonum/mat"
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/vg"
 
 	"unfold/analysis"
 	"unfold/embed"
-	"unfold/series"
 )
 
 type embedOptions struct {
@@ -180,41 +176,4 @@ func (a *app) runEmbed(path string, o *embedOptions) error {
 		fmt.Fprintf(a.stdout, "caution: %s\n", w)
 	}
 	return nil
-}
-
-// writeVectors writes the delay vectors as CSV (header x(t),x(t+τ)… in samples) or .npy (an
-// N×m float64 array), through an atomic file.
-func writeVectors(path, input, ext string, e embed.Embedding, name string) error {
-	if name == "" {
-		name = "x"
-	}
-	f, err := series.CreateAtomic(path, input)
-	if err != nil {
-		return err
-	}
-	defer f.Abort()
-	if ext == ".npy" {
-		bw := bufio.NewWriterSize(f, 1<<20)
-		if err := npyio.Write(bw, mat.NewDense(e.Len(), e.Dim, e.Dense())); err != nil {
-			return fmt.Errorf("writing %s: %w", path, err)
-		}
-		if err := bw.Flush(); err != nil {
-			return fmt.Errorf("writing %s: %w", path, err)
-		}
-		return f.Commit()
-	}
-	header := make([]string, e.Dim)
-	cols := make([][]float64, e.Dim)
-	for k := range header {
-		if k == 0 {
-			header[k] = name + "(t)"
-		} else {
-			header[k] = fmt.Sprintf("%s(t+%d)", name, k*e.Lag)
-		}
-		cols[k] = e.X[k*e.Lag : k*e.Lag+e.Len()]
-	}
-	if err := series.WriteCSV(f, header, cols...); err != nil {
-		return fmt.Errorf("writing %s: %w", path, err)
-	}
-	return f.Commit()
 }

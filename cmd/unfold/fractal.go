@@ -3,18 +3,16 @@ package main
 import (
 	"errors"
 	"fmt"
-	"image/color"
-	"math"
 	"strconv"
 
 	"github.com/spf13/cobra"
 	"github.com/spf13/pflag"
 	"gonum.org/v1/plot"
-	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/vg"
 
 	"unfold/analysis"
 	"unfold/dimension"
+	"unfold/figure"
 )
 
 type fractalOptions struct {
@@ -80,11 +78,6 @@ func (o *fractalOptions) options() analysis.FractalOptions {
 	return analysis.FractalOptions{Lag: o.lag, Theiler: o.theiler, MaxDim: o.maxDim, Radii: o.radii, Euclidean: o.euclidean}
 }
 
-// fractalFigure draws the local slopes of the correlation sums of run.
-func fractalFigure(run *fractalRun, name string) (*plot.Plot, error) {
-	return slopePlot(run.R, fmt.Sprintf("%s: local slopes (τ = %d, Theiler %d, %s norm)", name, run.Lag, run.Theiler, run.R.Norm))
-}
-
 func (a *app) runFractal(path string, o *fractalOptions) error {
 	if err := checkFigurePath(o.plot); err != nil {
 		return err
@@ -120,7 +113,7 @@ func (a *app) runFractal(path string, o *fractalOptions) error {
 		}
 	}
 	if o.plot != "" {
-		pl, err := fractalFigure(run, figureName(path))
+		pl, err := figure.Fractal(run, figureName(path))
 		if err != nil {
 			return err
 		}
@@ -162,71 +155,4 @@ func (a *app) runFractal(path string, o *fractalOptions) error {
 		fmt.Fprintf(a.stdout, "caution: %s\n", c)
 	}
 	return nil
-}
-
-// figureName is the input's name for figure titles.
-func figureName(path string) string {
-	if path == "-" {
-		return "standard input"
-	}
-	return path
-}
-
-// slopePlot draws the local slopes against r (log axis) for every dimension, with the fitted
-// scaling range of each curve drawn thicker.
-func slopePlot(r *dimension.Result, title string) (*plot.Plot, error) {
-	p := plot.New()
-	p.Title.Text = title
-	p.X.Label.Text = "r (signal units, log scale)"
-	p.Y.Label.Text = "d log C / d log r"
-	p.X.Scale = plot.LogScale{}
-	p.X.Tick.Marker = plot.LogTicks{Prec: -1}
-	for i, c := range r.Curves {
-		var pts, fitPts plotter.XYs
-		for k, s := range c.Slopes {
-			if math.IsNaN(s) || math.IsInf(s, 0) {
-				continue
-			}
-			pts = append(pts, plotter.XY{X: r.Radii[k], Y: s})
-			if c.Fitted && k >= c.From && k <= c.To {
-				fitPts = append(fitPts, plotter.XY{X: r.Radii[k], Y: s})
-			}
-		}
-		if len(pts) < 2 {
-			continue
-		}
-		col := palette(i)
-		l, err := plotter.NewLine(pts)
-		if err != nil {
-			return nil, err
-		}
-		l.Color = col
-		p.Add(l)
-		p.Legend.Add(fmt.Sprintf("m = %d", c.Dim), l)
-		if len(fitPts) >= 2 {
-			f, err := plotter.NewLine(fitPts)
-			if err != nil {
-				return nil, err
-			}
-			f.Color, f.Width = col, vg.Points(3)
-			p.Add(f)
-		}
-	}
-	if r.D2 > 0 {
-		h := plotter.NewFunction(func(float64) float64 { return r.D2 })
-		h.Dashes = []vg.Length{vg.Points(4), vg.Points(3)}
-		h.Color = color.Gray{Y: 80}
-		p.Add(h)
-		p.Legend.Add(fmt.Sprintf("D2 = %.3g", r.D2), h)
-	}
-	p.Legend.Top, p.Legend.Left = true, true
-	p.Y.Min = 0
-	return p, nil
-}
-
-// palette returns a distinguishable colour for curve i.
-func palette(i int) color.Color {
-	cols := []color.RGBA{{31, 119, 180, 255}, {214, 39, 40, 255}, {44, 160, 44, 255}, {148, 103, 189, 255},
-		{255, 127, 14, 255}, {140, 86, 75, 255}, {227, 119, 194, 255}, {23, 190, 207, 255}, {127, 127, 127, 255}, {188, 189, 34, 255}}
-	return cols[i%len(cols)]
 }

@@ -1,15 +1,11 @@
 package main
 
 import (
-	"bytes"
 	"fmt"
-	"path/filepath"
 	"strconv"
-	"strings"
 
 	"github.com/spf13/cobra"
 	"github.com/spf13/pflag"
-	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/vg"
 
 	"unfold/analysis"
@@ -161,63 +157,4 @@ func (a *app) runLag(path string, o *lagOptions) error {
 		fmt.Fprintf(a.stdout, "caution: %s\n", w)
 	}
 	return nil
-}
-
-const ln2 = 0.6931471805599453
-
-func fmtG(v float64) string { return strconv.FormatFloat(v, 'g', 6, 64) }
-
-// figureOf describes the record for the figure titles and axis labels.
-func figureOf(path string, s *series.Series) embed.Figure {
-	title := filepath.Base(path)
-	if path == "-" {
-		title = "standard input"
-	}
-	return embed.Figure{Title: title, Signal: s.Name, Unit: s.Unit, Dt: s.Dt, TimeUnit: "time units"}
-}
-
-// checkFigurePath accepts "" or a name ending in .png or .svg.
-func checkFigurePath(p string) error {
-	if p == "" {
-		return nil
-	}
-	switch strings.ToLower(filepath.Ext(p)) {
-	case ".png", ".svg":
-		return nil
-	}
-	return usagef("figure %s: the name must end in .png or .svg", p)
-}
-
-// writeFigureFile draws rows into path (format from the extension) through an atomic file.
-func writeFigureFile(path, input string, w, h vg.Length, rows [][]*plot.Plot) error {
-	var buf bytes.Buffer
-	if err := embed.WriteFigure(&buf, strings.TrimPrefix(strings.ToLower(filepath.Ext(path)), "."), w, h, rows); err != nil {
-		return err
-	}
-	return writeBytesFile(path, input, buf.Bytes())
-}
-
-func writeBytesFile(path, input string, b []byte) error {
-	f, err := series.CreateAtomic(path, input)
-	if err != nil {
-		return err
-	}
-	defer f.Abort()
-	if _, err := f.Write(b); err != nil {
-		return fmt.Errorf("writing %s: %w", path, err)
-	}
-	return f.Commit()
-}
-
-// writeCSVFile writes columns with a header through an atomic file.
-func writeCSVFile(path, input string, header []string, cols ...[]float64) error {
-	f, err := series.CreateAtomic(path, input)
-	if err != nil {
-		return err
-	}
-	defer f.Abort()
-	if err := series.WriteCSV(f, header, cols...); err != nil {
-		return fmt.Errorf("writing %s: %w", path, err)
-	}
-	return f.Commit()
 }

@@ -2,19 +2,16 @@ package main
 
 import (
 	"fmt"
-	"image/color"
-	"slices"
 	"strconv"
 
 	"github.com/spf13/cobra"
 	"github.com/spf13/pflag"
-	"gonum.org/v1/plot"
-	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/vg"
 
 	"unfold/analysis"
 	"unfold/embed"
-	"unfold/regime"
+	"unfold/figure"
+	"unfold/report"
 )
 
 type regimeOptions struct {
@@ -95,22 +92,6 @@ func (o *regimeOptions) options() analysis.RegimeOptions {
 	return analysis.RegimeOptions{Lag: o.lag, Dim: o.dim, Theiler: o.theiler, Surrogates: o.surrogates, NoLyapunov: o.noLyap}
 }
 
-// evidenceRows are the rows of the evidence table: the item's name, then "points to (weight):
-// detail", sorted by name.
-func evidenceRows(v *regime.Verdict) [][2]string {
-	keys := make([]string, 0, len(v.Evidence))
-	for k := range v.Evidence {
-		keys = append(keys, k)
-	}
-	slices.Sort(keys)
-	rows := make([][2]string, 0, len(keys))
-	for _, k := range keys {
-		it := v.Evidence[k]
-		rows = append(rows, [2]string{k, fmt.Sprintf("%s (%g): %s", it.PointsTo, it.Weight, it.Detail)})
-	}
-	return rows
-}
-
 func (a *app) runRegime(path string, o *regimeOptions) error {
 	if err := checkFigurePath(o.plot); err != nil {
 		return err
@@ -137,7 +118,7 @@ func (a *app) runRegime(path string, o *regimeOptions) error {
 		a.notef("Theiler window %d samples (autocorrelation 1/e decay time)", ev.Theiler)
 	}
 	if o.plot != "" {
-		rows, err := evidencePlots(an, figureName(path))
+		rows, err := figure.Evidence(an, figureName(path))
 		if err != nil {
 			return err
 		}
@@ -157,7 +138,7 @@ func (a *app) runRegime(path string, o *regimeOptions) error {
 		{"", ""},
 		{"evidence", "points to (weight): detail"},
 	}
-	for _, r := range evidenceRows(v) {
+	for _, r := range report.EvidenceRows(v) {
 		rows = append(rows, []string{"  " + r[0], r[1]})
 	}
 	if err := a.table(rows); err != nil {
@@ -167,84 +148,4 @@ func (a *app) runRegime(path string, o *regimeOptions) error {
 		fmt.Fprintf(a.stdout, "caution: %s\n", c)
 	}
 	return nil
-}
-
-// evidencePlots draws the spectrum with its significant lines and the two surrogate tests
-// (surrogate values as points, the data as a vertical line).
-func evidencePlots(an *regime.Analysis, name string) ([][]*plot.Plot, error) {
-	ev := an.Evidence
-	var row []*plot.Plot
-	if l := ev.Lines; l != nil {
-		p := plot.New()
-		p.Title.Text = fmt.Sprintf("%s: spectrum (%s) → %s", name, l.Kind, an.Verdict.Regime)
-		p.X.Label.Text = "frequency (cycles per time unit)"
-		p.Y.Label.Text = "power density (log)"
-		p.Y.Scale = plot.LogScale{}
-		p.Y.Tick.Marker = plot.LogTicks{Prec: 1}
-		var pts plotter.XYs
-		floor := 0.0
-		for k, pw := range l.Spectrum.Power {
-			if k > 0 && pw > 0 {
-				pts = append(pts, plotter.XY{X: l.Spectrum.Freq[k], Y: pw})
-				if floor == 0 || pw < floor {
-					floor = pw
-				}
-			}
-		}
-		if len(pts) > 1 {
-			ln, err := plotter.NewLine(pts)
-			if err != nil {
-				return nil, err
-			}
-			ln.Color = palette(0)
-			p.Add(ln)
-		}
-		var pk plotter.XYs
-		for _, q := range l.Peaks {
-			pk = append(pk, plotter.XY{X: q.Freq, Y: q.Power})
-		}
-		if len(pk) > 0 {
-			sc, err := plotter.NewScatter(pk)
-			if err != nil {
-				return nil, err
-			}
-			sc.Color = palette(1)
-			p.Add(sc)
-			p.Legend.Add("significant lines", sc)
-		}
-		p.Legend.Top = true // the spectrum falls to the right: keep the legend off the noise floor
-		row = append(row, p)
-	}
-	for _, t := range []*regime.RankTest{ev.Prediction, ev.Reversal} {
-		if t == nil {
-			continue
-		}
-		p := plot.New()
-		p.Title.Text = fmt.Sprintf("%s: p = %.3g", t.Name, t.P)
-		p.X.Label.Text = t.Name
-		p.Y.Label.Text = "surrogate number"
-		var pts plotter.XYs
-		for i, s := range t.Surrogates {
-			pts = append(pts, plotter.XY{X: s, Y: float64(i + 1)})
-		}
-		sc, err := plotter.NewScatter(pts)
-		if err != nil {
-			return nil, err
-		}
-		sc.Color = color.Gray{Y: 90}
-		p.Add(sc)
-		p.Legend.Add("IAAFT surrogates", sc)
-		d, err := plotter.NewLine(plotter.XYs{{X: t.Data, Y: 0}, {X: t.Data, Y: float64(len(t.Surrogates) + 1)}})
-		if err != nil {
-			return nil, err
-		}
-		d.Color, d.Width = palette(1), vg.Points(2)
-		p.Add(d)
-		p.Legend.Add("data", d)
-		p.Legend.Top = true
-		// head room above the surrogates so the legend covers no point
-		p.Y.Min, p.Y.Max = 0, float64(len(t.Surrogates))*1.3+2
-		row = append(row, p)
-	}
-	return [][]*plot.Plot{row}, nil
 }

@@ -1,28 +1,17 @@
 package main
 
 import (
-	"bytes"
-	"context"
-	"crypto/sha256"
-	"encoding/hex"
-	"encoding/json"
 	"errors"
 	"fmt"
 	"os"
 	"path/filepath"
-	"strconv"
 	"strings"
-	"time"
 
 	"github.com/spf13/cobra"
 	"github.com/spf13/pflag"
-	"gonum.org/v1/plot/vg"
 
 	"unfold/analysis"
-	"unfold/demo"
-	"unfold/embed"
 	"unfold/report"
-	"unfold/series"
 )
 
 // reportOptions are the flags of `report` (and of `batch`, which runs the same chain). The
@@ -120,76 +109,18 @@ strain record, see testdata/demo/README.md).`,
 
 // addReportFlags binds the flags report and batch share.
 func addReportFlags(f *pflag.FlagSet, o *reportOptions) {
+	d, e := analysis.DefaultDimOptions(), analysis.DefaultEmbedOptions()
 	f.StringVarP(&o.output, "output", "o", "", "output directory (created if missing)")
 	f.BoolVar(&o.png, "png", false, "also write every figure as PNG")
 	f.IntVar(&o.lag, "lag", 0, "delay in samples for the stages after lag (default: the lag stage's choice)")
 	f.IntVar(&o.dim, "dim", 0, "embedding dimension for the stages after dim (default: the dim stage's choice)")
-	f.IntVar(&o.maxDim, "max-dim", 10, "largest dimension scanned by the dim stage")
-	f.IntVar(&o.theiler, "theiler", -1, "Theiler window in samples (default: 1/e decay time of the autocorrelation)")
+	f.IntVar(&o.maxDim, "max-dim", d.MaxDim, "largest dimension scanned by the dim stage")
+	f.IntVar(&o.theiler, "theiler", d.Theiler, "Theiler window in samples (default: 1/e decay time of the autocorrelation)")
 	f.IntVar(&o.maxLag, "max-lag", 0, "largest lag scanned by the lag stage (default: as 'unfold lag')")
-	f.StringVar(&o.mi, "mi", embed.Histogram, "mutual-information estimator of the lag stage: hist or ksg")
-	f.StringVar(&o.norm, "norm", "euclidean", "distance of the dim and lyapunov stages: euclidean or max")
-	f.Float64Var(&o.azimuth, "azimuth", -45, "rotation of the 3-D state-space view, degrees")
-	f.Float64Var(&o.elevation, "elevation", 30, "elevation of the 3-D state-space view, degrees")
-}
-
-// cmdLine rebuilds the command as given for the provenance: the command path, every flag set
-// and the arguments.
-func cmdLine(cmd *cobra.Command, args []string) []string {
-	parts := strings.Fields(cmd.CommandPath())
-	cmd.Flags().Visit(func(f *pflag.Flag) {
-		parts = append(parts, "--"+f.Name+"="+f.Value.String())
-	})
-	return append(parts, args...)
-}
-
-// commitID is the source commit recorded in the provenance.
-func commitID() string {
-	v := versionString()
-	if i := strings.Index(v, "(commit "); i >= 0 {
-		return strings.TrimSuffix(v[i+len("(commit "):], ")")
-	}
-	return "unknown"
-}
-
-// checkReportOptions validates the overrides before any work.
-func checkReportOptions(o *reportOptions) error {
-	if o.lag < 0 || o.dim < 0 || o.maxDim < 1 || o.maxLag < 0 {
-		return usagef("report: want --lag, --dim and --max-lag ≥ 0 and --max-dim ≥ 1")
-	}
-	if o.mi != embed.Histogram && o.mi != embed.KSG {
-		return usagef("report: --mi %q: want hist or ksg", o.mi)
-	}
-	if _, err := parseNorm(o.norm); err != nil {
-		return err
-	}
-	return nil
-}
-
-// loadReportInput reads the input of a report: a file, standard input or the demo signal.
-func (a *app) loadReportInput(path string, o *reportOptions) (*series.Series, *inputInfo, string, error) {
-	if !o.demo {
-		s, in, err := a.loadInput(path, &o.in)
-		if err != nil {
-			return nil, nil, "", err
-		}
-		title := filepath.Base(path)
-		if path == "-" {
-			title = "standard input"
-		}
-		return s, in, title, nil
-	}
-	b := demo.Strip()
-	s, err := series.Read(bytes.NewReader(b), demo.Name, o.in.read)
-	if err != nil {
-		return nil, nil, "", err
-	}
-	if s, err = o.in.prep.Apply(s); err != nil {
-		return nil, nil, "", err
-	}
-	h := sha256.Sum256(b)
-	return s, &inputInfo{Path: demo.Path, SHA256: hex.EncodeToString(h[:]), Samples: s.Len(), Dt: s.Dt},
-		demo.Name + " (built-in demo signal, synthetic)", nil
+	f.StringVar(&o.mi, "mi", analysis.DefaultLagOptions().MI, "mutual-information estimator of the lag stage: hist or ksg")
+	f.StringVar(&o.norm, "norm", d.Norm, "distance of the dim and lyapunov stages: euclidean or max")
+	f.Float64Var(&o.azimuth, "azimuth", e.Azimuth, "rotation of the 3-D state-space view, degrees")
+	f.Float64Var(&o.elevation, "elevation", e.Elevation, "elevation of the 3-D state-space view, degrees")
 }
 
 func (a *app) runReport(cmd *cobra.Command, path string, args []string, o *reportOptions) error {
@@ -245,206 +176,4 @@ func (a *app) runReport(cmd *cobra.Command, path string, args []string, o *repor
 		return noAnswer(errors.New("report: some stages gave no answer (the report is written): " + strings.Join(why, "; ")))
 	}
 	return nil
-}
-
-// runChain runs the chain (analysis.Run) on s and renders every stage's section; with
-// progress, one line per stage goes to stderr.
-func (a *app) runChain(cmd *cobra.Command, args []string, path, title string, s *series.Series, in *inputInfo, o *reportOptions, progress bool) *report.Result {
-	p := reportParams{prepParams: newPrepParams(s, &o.in), Lag: o.lag, Dim: o.dim, MaxDim: o.maxDim, Theiler: o.theiler,
-		MaxLag: o.maxLag, MI: o.mi, Norm: o.norm, Azimuth: o.azimuth, Elevation: o.elevation, PNG: o.png, Threads: a.threads()}
-	h := report.Header{Version: versionString(), Commit: commitID(), CommandLine: cmdLine(cmd, args),
-		Seeds: map[string]uint64{"seed": a.global.Seed}, Parameters: p, Title: title,
-		Input: report.Input{Path: in.Path, SHA256: in.SHA256, Samples: in.Samples, Dt: in.Dt}}
-	if path == "" {
-		path = in.Path
-	}
-	theiler, az, el := o.theiler, o.azimuth, o.elevation
-	opt := analysis.Options{Lag: o.lag, Dim: o.dim, MaxDim: o.maxDim, Theiler: &theiler, MaxLag: o.maxLag, MI: o.mi,
-		Norm: o.norm, Azimuth: &az, Elevation: &el, Threads: a.threads(), Seed: a.global.Seed, Path: path, Input: in,
-		Version: versionString(), Read: o.in.read, Prep: o.in.prep, Notef: a.notef, Progress: a.progress}
-	if progress {
-		opt.After = func(key string, took time.Duration, err error) {
-			if err != nil {
-				a.notef("  %-9s %7.2f s  no answer: %v", key, took.Seconds(), err)
-				return
-			}
-			a.notef("  %-9s %7.2f s", key, took.Seconds())
-		}
-	}
-	res, err := analysis.Run(context.Background(), s, opt)
-	if res == nil {
-		res = &analysis.Result{Stages: []analysis.StageRecord{{Key: "inspect", Status: analysis.StatusError, Error: err.Error()}}}
-	}
-	return report.Run(h, a.reportStages(path, s, o, res), nil, nil)
-}
-
-// stageErr is the recorded error of the stage key of res (nil when it gave an answer).
-func stageErr(res *analysis.Result, key string) error {
-	r := res.Stage(key)
-	if r == nil {
-		return errors.New(key + ": did not run")
-	}
-	if r.Status != analysis.StatusOK {
-		return errors.New(r.Error)
-	}
-	return nil
-}
-
-// stageTime is the compute time of the stage key of res.
-func stageTime(res *analysis.Result, key string) time.Duration {
-	if r := res.Stage(key); r != nil {
-		return time.Duration(r.Seconds * float64(time.Second))
-	}
-	return 0
-}
-
-// reportStages renders the stages of res as the page's sections: each stage's JSON object is
-// what its single command prints with --json.
-func (a *app) reportStages(path string, s *series.Series, o *reportOptions, res *analysis.Result) []report.Stage {
-	fig := figureOf(path, s)
-	if o.demo {
-		fig.Title = demo.Name
-	}
-	stages := []report.Stage{
-		{Key: "inspect", Title: "The signal", Run: func() (*report.Section, error) {
-			if res.Inspect == nil {
-				return nil, stageErr(res, "inspect")
-			}
-			sm := res.Inspect.Summary
-			js, err := json.Marshal(res.Inspect)
-			if err != nil {
-				return nil, err
-			}
-			f, err := report.SignalFigure("signal", s.Name, s.Unit, fig.TimeUnit, s.Values, s.Dt, 1500)
-			if err != nil {
-				return nil, fmt.Errorf("inspect: figure: %w", err)
-			}
-			g := fmtG
-			unit := ""
-			if s.Unit != "" {
-				unit = " " + s.Unit
-			}
-			return &report.Section{JSON: js, Figures: []report.Figure{f}, Cautions: sm.Cautions, Summary: [][2]string{
-				{"signal", s.Name},
-				{"samples", strconv.Itoa(sm.Samples)},
-				{"sampling interval", g(sm.Dt) + " time units (duration " + g(sm.Duration) + ")"},
-				{"mean ± std", g(sm.Mean) + " ± " + g(sm.Std) + unit},
-				{"range", g(sm.Min) + " … " + g(sm.Max) + unit},
-				{"quantization step", g(sm.Quantization) + unit},
-				{"dominant period", g(sm.DominantPeriod) + " time units (" + g(sm.DominantPeriod/sm.Dt) + " samples)"},
-				{"gaps filled", strconv.Itoa(sm.GapsFilled)},
-				{"stationary", fmt.Sprintf("%v (mean shift %.1f, variance shift %.1f standard errors)",
-					sm.Stationarity.Stationary, sm.Stationarity.MeanShift, sm.Stationarity.VarianceShift)},
-			}}, nil
-		}},
-		{Key: "lag", Title: "Delay: mutual information and autocorrelation", Run: func() (*report.Section, error) {
-			if res.Lag == nil {
-				return nil, stageErr(res, "lag")
-			}
-			c, p, b := res.Lag.Choice, res.Lag.Params, res.Lag.Body
-			js, err := json.Marshal(res.Lag)
-			if err != nil {
-				return nil, err
-			}
-			rows, err := embed.LagPlots(c, fig)
-			if err != nil {
-				return nil, fmt.Errorf("lag: figure: %w", err)
-			}
-			sum := [][2]string{
-				{"chosen lag", fmt.Sprintf("%d samples = %s time units", c.Lag, fmtG(b.LagTime))},
-				{"rule", c.Method + ": " + c.Reason},
-				{"estimator", p.Estimator},
-				{"autocorrelation", acfText(b.AutocorrelationZero, b.AutocorrelationDecay, p.MaxLag)},
-				{"suggested Theiler window", strconv.Itoa(b.Theiler) + " samples"},
-			}
-			if o.lag > 0 {
-				sum = append(sum, [2]string{"lag used downstream", strconv.Itoa(o.lag) + " samples (given with --lag)"})
-			}
-			return &report.Section{JSON: js, Summary: sum, Cautions: b.Cautions, Figures: []report.Figure{{Name: "lag",
-				Caption: "Mutual information (bits) and autocorrelation against the delay; the chosen lag is marked.",
-				Width:   9 * vg.Inch, Height: 7.5 * vg.Inch, Rows: rows}}}, nil
-		}},
-		{Key: "dim", Title: "Dimension: false neighbours and Cao's E1/E2", Run: func() (*report.Section, error) {
-			if res.Dim == nil {
-				return nil, stageErr(res, "dim")
-			}
-			c, p, b := res.Dim.Choice, res.Dim.Params, res.Dim.Body
-			js, err := json.Marshal(res.Dim)
-			if err != nil {
-				return nil, err
-			}
-			rows, err := embed.DimPlots(c, fig)
-			if err != nil {
-				return nil, fmt.Errorf("dim: figure: %w", err)
-			}
-			chosen := "none up to " + strconv.Itoa(c.MaxDim)
-			if c.Dimension > 0 {
-				chosen = strconv.Itoa(c.Dimension)
-			}
-			return &report.Section{JSON: js, Cautions: b.Cautions, Summary: [][2]string{
-				{"chosen dimension", chosen},
-				{"rule", c.Method + ": " + c.Reason},
-				{"false neighbours / Cao", dimText(c.FNNDim, c.MaxDim) + " / " + dimText(c.CaoDim, c.MaxDim)},
-				{"consistent with noise (E2 ≈ 1)", strconv.FormatBool(c.NoiseLike)},
-				{"lag, Theiler window", fmt.Sprintf("%d samples (%s), %d samples (%s)", p.Lag, p.LagMethod, p.Theiler, p.TheilerFrom)},
-			}, Figures: []report.Figure{{Name: "dim",
-				Caption: "False-neighbour fraction and Cao's E1, E2 against the dimension; the chosen dimension is marked.",
-				Width:   9 * vg.Inch, Height: 7.5 * vg.Inch, Rows: rows}}}, stageErr(res, "dim")
-		}},
-		{Key: "embed", Title: "State-space picture", Run: func() (*report.Section, error) {
-			if res.Embed == nil {
-				return nil, stageErr(res, "embed")
-			}
-			e, p, b := res.Embed.Embedding, res.Embed.Params, res.Embed.Body
-			js, err := json.Marshal(res.Embed)
-			if err != nil {
-				return nil, err
-			}
-			rows, err := embed.StateSpacePlots(e, fig, embed.StateSpaceOptions{Azimuth: o.azimuth, Elevation: o.elevation, DensityAbove: 3000, Bins: 140})
-			if err != nil {
-				return nil, fmt.Errorf("embed: figure: %w", err)
-			}
-			// smaller canvases than the command's: the page scales them to one column, and
-			// gonum's text keeps its size in points
-			w, h := 6*vg.Inch, 5.5*vg.Inch
-			if len(rows[0]) > 1 {
-				w, h = 11*vg.Inch, 5*vg.Inch
-			}
-			return &report.Section{JSON: js, Cautions: b.Cautions, Summary: [][2]string{
-				{"delay vectors", fmt.Sprintf("%d of dimension %d at lag %d samples", b.Vectors, b.Dimension, b.Lag)},
-				{"lag / dimension from", p.LagMethod + " / " + p.DimMethod},
-			}, Figures: []report.Figure{{Name: "embed",
-				Caption: "The delay plot x(t+τ) against x(t) and, for m ≥ 3, an oblique view of (x(t), x(t+τ), x(t+2τ)).",
-				Width:   w, Height: h, Rows: rows}}}, nil
-		}},
-		lyapunovStage(res, fig.Title),
-		fractalStage(res, fig.Title),
-		regimeStage(res, fig.Title),
-		symbolsStage(res, fig.Title),
-		entropyStage(res),
-	}
-	for i := range stages {
-		stages[i].Took = stageTime(res, stages[i].Key)
-	}
-	return stages
-}
-
-// dimText is a dimension found by one criterion, or "none up to MAX" when it found none.
-func dimText(d, maxDim int) string {
-	if d <= 0 {
-		return "none up to " + strconv.Itoa(maxDim)
-	}
-	return strconv.Itoa(d)
-}
-
-// acfText describes the autocorrelation's first zero and 1/e decay (0 = not reached in the scan).
-func acfText(zero, decay, maxLag int) string {
-	z, d := "no zero up to lag "+strconv.Itoa(maxLag), "no 1/e decay up to lag "+strconv.Itoa(maxLag)
-	if zero > 0 {
-		z = "first zero at lag " + strconv.Itoa(zero)
-	}
-	if decay > 0 {
-		d = "1/e decay at lag " + strconv.Itoa(decay)
-	}
-	return z + ", " + d
 }

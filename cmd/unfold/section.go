@@ -2,16 +2,14 @@ package main
 
 import (
 	"fmt"
-	"image/color"
 	"strconv"
 
 	"github.com/spf13/cobra"
 	"gonum.org/v1/plot"
-	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/vg"
-	"gonum.org/v1/plot/vg/draw"
 
 	"unfold/analysis"
+	"unfold/figure"
 )
 
 type sectionOptions struct {
@@ -97,7 +95,7 @@ func (a *app) runSection(path string, o *sectionOptions) error {
 		}
 	}
 	if o.plot != "" {
-		p, err := returnMapPlot(sec.Values(), run.ValueName, figureOf(path, s).Title)
+		p, err := figure.ReturnMap(sec.Values(), run.ValueName, figureOf(path, s).Title)
 		if err != nil {
 			return err
 		}
@@ -134,33 +132,4 @@ func (a *app) runSection(path string, o *sectionOptions) error {
 		fmt.Fprintf(a.stdout, "caution: %s\n", c)
 	}
 	return nil
-}
-
-// returnMapPlot draws v[n+1] against v[n] with the diagonal.
-func returnMapPlot(v []float64, name, title string) (*plot.Plot, error) {
-	p := plot.New()
-	p.Title.Text = "Return map — " + title
-	p.X.Label.Text = name + " (n)"
-	p.Y.Label.Text = name + " (n+1)"
-	pts := make(plotter.XYs, 0, max(len(v)-1, 0))
-	lo, hi := v[0], v[0]
-	for i := 0; i+1 < len(v); i++ {
-		pts = append(pts, plotter.XY{X: v[i], Y: v[i+1]})
-		lo, hi = min(lo, v[i]), max(hi, v[i])
-	}
-	sc, err := plotter.NewScatter(pts)
-	if err != nil {
-		return nil, fmt.Errorf("return map: %w", err)
-	}
-	sc.GlyphStyle.Shape = draw.CircleGlyph{}
-	sc.GlyphStyle.Radius = vg.Points(1.2)
-	sc.GlyphStyle.Color = color.RGBA{R: 0x1f, G: 0x5f, B: 0xa8, A: 0xff}
-	diag, err := plotter.NewLine(plotter.XYs{{X: lo, Y: lo}, {X: hi, Y: hi}})
-	if err != nil {
-		return nil, fmt.Errorf("return map: %w", err)
-	}
-	diag.Color = color.RGBA{R: 0x80, G: 0x80, B: 0x80, A: 0xff}
-	diag.Dashes = []vg.Length{vg.Points(3), vg.Points(3)}
-	p.Add(diag, sc)
-	return p, nil
 }

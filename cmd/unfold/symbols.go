@@ -9,6 +9,7 @@ import (
 	"github.com/spf13/pflag"
 
 	"unfold/analysis"
+	"unfold/report"
 	"unfold/series"
 	"unfold/symbolic"
 )
@@ -151,7 +152,7 @@ func (a *app) runSymbols(cmd *cobra.Command, path string, o *symbolsOptions) err
 	rows := [][]string{
 		{"file", path},
 		{"record", run.Rec.Kind + " (" + run.RecFrom + "), symbols from the " + run.Applied},
-		{"partition", p.Kind + " at " + thresholdText(p.Thresholds)},
+		{"partition", p.Kind + " at " + report.ThresholdText(p.Thresholds)},
 		{"score", g(p.Score) + " (symbolic false-neighbour fraction; lower is better)"},
 		{"entropy rate", g(p.EntropyRate) + " bits/symbol"},
 		{"alphabet", run.Alphabet},
@@ -176,13 +177,4 @@ func noteList(run *symbolsRun) []string {
 		return nil
 	}
 	return run.Notes
-}
-
-// thresholdText lists cut values with 6 significant digits, comma separated.
-func thresholdText(th []float64) string {
-	t := make([]string, len(th))
-	for i, v := range th {
-		t[i] = strconv.FormatFloat(v, 'g', 6, 64)
-	}
-	return strings.Join(t, ", ")
 }
