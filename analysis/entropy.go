@@ -25,6 +25,7 @@ func DefaultEntropyOptions() EntropyOptions {
 	return EntropyOptions{Estimator: "grassberger", LZMax: 20_000_000}
 }
 
+// EntropyParams are the "parameters" of the entropy stage.
 type EntropyParams struct {
 	Estimator     string `json:"estimator"`
 	MaxLength     int    `json:"max_length"`
@@ -34,11 +35,13 @@ type EntropyParams struct {
 	LZMax         int    `json:"lz_max"`
 }
 
+// LZ76JSON is the Lempel–Ziv (1976) complexity: phrases and normalised value.
 type LZ76JSON struct {
 	Phrases    int     `json:"phrases"`
 	Normalized float64 `json:"normalized"`
 }
 
+// EntropyResult is the JSON body of the entropy stage.
 type EntropyResult struct {
 	EntropyRate    float64                `json:"entropy_rate"`
 	ExcessEntropy  float64                `json:"excess_entropy"`
@@ -51,7 +54,7 @@ type EntropyResult struct {
 	Cautions       []string               `json:"cautions"`
 }
 
-// entropyCompute reads the symbol stream r (named path, checked against its sidecar sc) and
+// Entropy reads the symbol stream r (named path, checked against its sidecar sc) and
 // returns the JSON input, parameters and body of `entropy`; the command and the report both
 // use it. The input's SHA-256 is that of the stream's bytes as read.
 func (e *Env) Entropy(path string, r io.Reader, sc *symbolic.Sidecar, o EntropyOptions) (*Input, EntropyParams, EntropyResult, error) {

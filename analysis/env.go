@@ -49,7 +49,10 @@ func (e *Env) progress(label string) func(done, total int) {
 // UsageError is a bad option value (the command line exits with status 2).
 type UsageError struct{ Err error }
 
+// Error is the message.
 func (e *UsageError) Error() string { return e.Err.Error() }
+
+// Unwrap returns the wrapped error.
 func (e *UsageError) Unwrap() error { return e.Err }
 
 // Usagef returns a *UsageError.
@@ -61,7 +64,10 @@ func Usagef(format string, args ...any) error {
 // command line exits with status 1).
 type NoAnswerError struct{ Err error }
 
+// Error is the message.
 func (e *NoAnswerError) Error() string { return e.Err.Error() }
+
+// Unwrap returns the wrapped error.
 func (e *NoAnswerError) Unwrap() error { return e.Err }
 
 // NoAnswer wraps err as a *NoAnswerError.

@@ -60,6 +60,7 @@ func ParseRadii(s string) ([]float64, error) {
 	return r, nil
 }
 
+// FractalParams are the "parameters" of the fractal stage.
 type FractalParams struct {
 	Column    string `json:"column"`
 	Lag       int    `json:"lag"`
@@ -72,12 +73,14 @@ type FractalParams struct {
 	Seed      uint64 `json:"seed"`
 }
 
+// CsumPoint is one correlation sum C(r) in one dimension.
 type CsumPoint struct {
 	Dimension int     `json:"dimension"`
 	R         float64 `json:"r"`
 	C         float64 `json:"c"`
 }
 
+// FractalDim is D2 (and Takens' estimate) in one dimension.
 type FractalDim struct {
 	Dimension int        `json:"dimension"`
 	D2        *float64   `json:"d2"`
@@ -85,6 +88,7 @@ type FractalDim struct {
 	Takens    *float64   `json:"takens"`
 }
 
+// FractalResult is the JSON body of the fractal stage.
 type FractalResult struct {
 	D2             float64      `json:"d2"`
 	Interval       [2]float64   `json:"interval"`
@@ -97,7 +101,7 @@ type FractalResult struct {
 	Cautions       []string     `json:"cautions"`
 }
 
-// FractalRun is what fractalCompute found, for the renderers (table, CSV, figure).
+// FractalRun is what Fractal found, for the renderers (table, CSV, figure).
 type FractalRun struct {
 	R                    *dimension.Result
 	Lag, Theiler         int
@@ -114,12 +118,11 @@ func CheckFractal(o FractalOptions) ([]float64, error) {
 	return ParseRadii(o.Radii)
 }
 
-// fractalCompute computes the correlation sums of s and D2 (choosing what o does not give) and
-// returns what the renderers need with the JSON parameters and body of `fractal`; the command
-// and the report both use it. lagMethod and theilerBy name the rules that chose o.Lag and
-// o.Theiler when a caller chose them already (the report's earlier stages); "" means given or
-// chosen here. When the curves have no scaling range the run is returned (its curves can be
-// drawn) with a no-answer error, and the body is empty.
+// Fractal computes the correlation sums of s and D2 (dimension.CorrelationDimension) at the
+// lag and Theiler window of c — chosen here from o when c is nil, else used as given with the
+// cautions passed — and returns what the renderers need with the JSON parameters and body of
+// the fractal stage. When the curves have no scaling range the run is returned (its curves can
+// be drawn) with a no-answer error, and the body is empty.
 func (e *Env) Fractal(path string, s *series.Series, o FractalOptions, c *embed.Choice, cautions []string) (*FractalRun, FractalParams, FractalResult, error) {
 	fail := func(run *FractalRun, err error) (*FractalRun, FractalParams, FractalResult, error) {
 		return run, FractalParams{}, FractalResult{}, err

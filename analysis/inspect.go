@@ -20,6 +20,7 @@ type InspectResult struct {
 	Cautions       []string            `json:"cautions"`
 }
 
+// InspectParams are the "parameters" of the inspect stage.
 type InspectParams struct {
 	Column      string `json:"column"`
 	TimeColumn  string `json:"time_column"`

@@ -40,6 +40,7 @@ func DefaultLyapunovOptions() LyapunovOptions {
 		MaxNeighbors: 32, FitFrom: -1, FitTo: -1, Reps: 500}
 }
 
+// LyapunovParams are the "parameters" of the lyapunov stage.
 type LyapunovParams struct {
 	PrepParams
 	Lag          int       `json:"lag"`
@@ -65,6 +66,7 @@ type LyapunovParams struct {
 	Evolve       int       `json:"spectrum_evolve,omitempty"`
 }
 
+// LyapunovFit is the fit range of λ1 and how it was found.
 type LyapunovFit struct {
 	From      int    `json:"from"`
 	To        int    `json:"to"`
@@ -72,12 +74,14 @@ type LyapunovFit struct {
 	Criterion string `json:"criterion"`
 }
 
+// DivergencePoint is one step of the divergence curve.
 type DivergencePoint struct {
 	Step    int     `json:"step"`
 	MeanLog float64 `json:"mean_log"`
 	Pairs   int64   `json:"pairs"`
 }
 
+// EpsCurveJSON is the divergence curve of one Kantz radius and its slope.
 type EpsCurveJSON struct {
 	Eps                float64  `json:"eps"`
 	References         int      `json:"references"`
@@ -86,6 +90,7 @@ type EpsCurveJSON struct {
 	Fit                *[2]int  `json:"fit"`
 }
 
+// LyapunovResult is the JSON body of the lyapunov stage.
 type LyapunovResult struct {
 	LambdaMax          *float64          `json:"lambda_max"`
 	LambdaMaxPerSample *float64          `json:"lambda_max_per_sample"`
@@ -104,7 +109,7 @@ type LyapunovResult struct {
 	Cautions           []string          `json:"cautions"`
 }
 
-// LyapunovRun is what lyapunovCompute found, for the renderers (table, CSV, figure).
+// LyapunovRun is what Lyapunov found, for the renderers (table, CSV, figure).
 type LyapunovRun struct {
 	R                               *lyapunov.Result
 	Spectrum                        *lyapunov.SpectrumResult
@@ -134,12 +139,12 @@ func CheckLyapunov(o LyapunovOptions) (lyapunov.Method, neighbors.Norm, error) {
 	return method, norm, nil
 }
 
-// lyapunovCompute estimates the largest exponent of s (choosing what o does not give) and
-// returns what the renderers need with the JSON parameters and body of `lyapunov`; the command
-// and the report both use it. lagMethod and dimMethod name the rules that chose o.Lag and o.Dim
-// when a caller chose them already (the report's earlier stages); "" means given or chosen
-// here. When the curve has no linear range the run, parameters and body are returned with a
-// no-answer error (the body then carries the curve and the reason).
+// Lyapunov estimates the largest exponent of s (lyapunov.Divergence, and the spectrum on
+// request) in the embedding c — chosen here from o when c is nil (then with the choice's
+// cautions), else used as given with the cautions passed — and returns what the renderers need
+// with the JSON parameters and body of the lyapunov stage. When the curve has no linear range
+// the run, parameters and body are returned with a no-answer error (the body then carries the
+// curve and the reason).
 func (e *Env) Lyapunov(path string, s *series.Series, o LyapunovOptions, c *embed.Choice, cautions []string) (*LyapunovRun, LyapunovParams, LyapunovResult, error) {
 	fail := func(err error) (*LyapunovRun, LyapunovParams, LyapunovResult, error) {
 		return nil, LyapunovParams{}, LyapunovResult{}, err

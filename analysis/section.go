@@ -27,6 +27,7 @@ func DefaultSectionOptions() SectionOptions {
 	return SectionOptions{Dim: 3, Level: "mean", Direction: "up", Interp: "linear"}
 }
 
+// SectionParams are the "parameters" of `unfold section` (and the section of a flow in symbols).
 type SectionParams struct {
 	Column    string  `json:"column"`
 	Method    string  `json:"method"`
@@ -39,6 +40,7 @@ type SectionParams struct {
 	Interp    string  `json:"interp"`
 }
 
+// SectionResult is the JSON body of `unfold section`.
 type SectionResult struct {
 	Crossings   int      `json:"crossings"`
 	Rate        float64  `json:"rate_per_time_unit"`

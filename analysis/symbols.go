@@ -34,6 +34,7 @@ func DefaultSymbolsOptions() SymbolsOptions {
 	return SymbolsOptions{Kind: "search", Alphabet: 2, Level: "mean", Direction: "up", Interp: "linear"}
 }
 
+// SymbolsParams are the "parameters" of the symbols stage.
 type SymbolsParams struct {
 	Column     string           `json:"column"`
 	Partition  string           `json:"partition"`
@@ -43,6 +44,7 @@ type SymbolsParams struct {
 	Section    *SectionParams   `json:"section,omitempty"`
 }
 
+// PartitionJSON is the partition of the symbols stage.
 type PartitionJSON struct {
 	Kind        string    `json:"kind"`
 	Thresholds  []float64 `json:"thresholds"`
@@ -53,6 +55,7 @@ type PartitionJSON struct {
 	Rule        string    `json:"rule,omitempty"`
 }
 
+// SymbolsResult is the JSON body of the symbols stage.
 type SymbolsResult struct {
 	Partition    PartitionJSON `json:"partition"`
 	AlphabetSize int           `json:"alphabet_size"`
