@@ -47,3 +47,21 @@ func TestChooseRemembersNoDimension(t *testing.T) {
 		t.Errorf("dim %+v, DimErr %v: want 0 with ErrNoDimension and the scan kept", c.Dim, c.DimErr)
 	}
 }
+
+// TestPublishedNames: FalseNeighbors and Cao are the curves of ChooseDimension's scan.
+func TestPublishedNames(t *testing.T) {
+	x := henonX(2000)
+	opt := DimOptions{Lag: 1, MaxDim: 4}
+	c, err := ChooseDimension(x, opt)
+	if err != nil {
+		t.Fatal(err)
+	}
+	f, err := FalseNeighbors(x, opt)
+	if err != nil || len(f) != len(c.FNN) || f[1] != c.FNN[1] {
+		t.Errorf("FalseNeighbors %v (%v), want %v", f, err, c.FNN)
+	}
+	e, err := Cao(x, opt)
+	if err != nil || len(e) != len(c.Cao) || e[0] != c.Cao[0] {
+		t.Errorf("Cao %v (%v), want %v", e, err, c.Cao)
+	}
+}
