@@ -60,11 +60,12 @@ normalised by log2(D!).`,
 
 // addEntropyFlags binds the flags of entropy (the report takes their defaults from here).
 func addEntropyFlags(f *pflag.FlagSet, o *entropyOptions) {
-	f.IntVar(&o.maxLength, "max-length", 0, "longest word length L (default: the supported length plus 2)")
-	f.StringVar(&o.estimator, "estimator", "grassberger", "block-entropy estimator: grassberger, miller-madow or plugin")
+	d := analysis.DefaultEntropyOptions()
+	f.IntVar(&o.maxLength, "max-length", d.MaxLength, "longest word length L (default: the supported length plus 2)")
+	f.StringVar(&o.estimator, "estimator", d.Estimator, "block-entropy estimator: grassberger, miller-madow or plugin")
 	f.IntVar(&o.permutation, "permutation", 0, "permutation entropy of order D (2 … 10) of a numeric signal instead of a symbol stream")
 	f.IntVar(&o.delay, "delay", 1, "with --permutation: spacing of the samples of a pattern")
-	f.IntVar(&o.lzMax, "lz-max", 20_000_000, "Lempel–Ziv complexity of the first N symbols only (it keeps them in memory, about 9·N bytes); block entropies always use the whole stream")
+	f.IntVar(&o.lzMax, "lz-max", d.LZMax, "Lempel–Ziv complexity of the first N symbols only (it keeps them in memory, about 9·N bytes); block entropies always use the whole stream")
 }
 
 func (o *entropyOptions) options() analysis.EntropyOptions {

@@ -72,17 +72,18 @@ The file is written to a temporary name and renamed, and never over the input.`,
 
 // addSymbolsFlags binds the flags of symbols (the report takes their defaults from here).
 func addSymbolsFlags(f *pflag.FlagSet, o *symbolsOptions) {
+	d := analysis.DefaultSymbolsOptions()
 	f.StringVarP(&o.output, "output", "o", "", "symbol stream to write (its sidecar is OUT.json beside it)")
-	f.StringVar(&o.kind, "partition", "search", "partition: search, critical, quantile or threshold")
-	f.IntVar(&o.alphabet, "alphabet", 2, "alphabet size K (search and quantile)")
-	f.Float64SliceVar(&o.thresholds, "thresholds", nil, "cut values for --partition threshold, comma separated")
-	f.BoolVar(&o.flow, "flow", false, "treat the record as a sampled flow (partition its section)")
-	f.BoolVar(&o.mapR, "map", false, "treat the record as a map (partition the samples)")
-	f.IntVar(&o.lag, "lag", 0, "lag in samples for the map/flow decision and the section (default: chosen from the mutual information)")
-	f.BoolVar(&o.maxima, "maxima", false, "flows: use the local maxima of the signal as the section")
-	f.StringVar(&o.level, "level", "mean", "flows: where the section plane cuts the first delay coordinate")
-	f.StringVar(&o.direction, "direction", "up", "flows: section crossing direction: up, down or both")
-	f.StringVar(&o.interp, "interp", "linear", "flows: interpolation between samples: linear or cubic")
+	f.StringVar(&o.kind, "partition", d.Kind, "partition: search, critical, quantile or threshold")
+	f.IntVar(&o.alphabet, "alphabet", d.Alphabet, "alphabet size K (search and quantile)")
+	f.Float64SliceVar(&o.thresholds, "thresholds", d.Thresholds, "cut values for --partition threshold, comma separated")
+	f.BoolVar(&o.flow, "flow", d.Flow, "treat the record as a sampled flow (partition its section)")
+	f.BoolVar(&o.mapR, "map", d.Map, "treat the record as a map (partition the samples)")
+	f.IntVar(&o.lag, "lag", d.Lag, "lag in samples for the map/flow decision and the section (default: chosen from the mutual information)")
+	f.BoolVar(&o.maxima, "maxima", d.Maxima, "flows: use the local maxima of the signal as the section")
+	f.StringVar(&o.level, "level", d.Level, "flows: where the section plane cuts the first delay coordinate")
+	f.StringVar(&o.direction, "direction", d.Direction, "flows: section crossing direction: up, down or both")
+	f.StringVar(&o.interp, "interp", d.Interp, "flows: interpolation between samples: linear or cubic")
 }
 
 type symbolsRun = analysis.SymbolsRun
