@@ -231,6 +231,9 @@ func Run(ctx context.Context, s *series.Series, opt Options) (*Result, error) {
 	if in == nil {
 		in = &Input{Path: path, Samples: s.Len(), Dt: s.Dt}
 	}
+	if opt.Prep.Detrend == "" {
+		opt.Prep.Detrend = "none" // as the command line records it
+	}
 	e := &Env{Threads: opt.Threads, Seed: seed, Notef: opt.Notef, Progress: opt.Progress, Read: opt.Read, Prep: opt.Prep}
 	res := &Result{Stages: []StageRecord{}}
 	out := func(command string) (string, string, *Input) { return command, opt.Version, in }

@@ -2,7 +2,9 @@ package main
 
 import (
 	"bytes"
+	"context"
 	"encoding/csv"
+	"encoding/json"
 	"flag"
 	"fmt"
 	"math"
@@ -15,6 +17,9 @@ import (
 	"testing"
 
 	"golang.org/x/net/html"
+
+	"unfold/analysis"
+	"unfold/series"
 )
 
 var updateGolden = flag.Bool("update", false, "rewrite the golden files of the report tests")
@@ -263,9 +268,10 @@ func checkStageFigures(t *testing.T, page []byte, want map[string]string) {
 }
 
 // TestReportSameJSONAsCommands: the report's lag, dim, lyapunov and fractal objects are exactly
-// what `unfold lag --json`, `unfold dim --json`, … print for the same file, and its regime
-// object what `unfold regime --json` prints on the same embedding; a file name holding <script>
-// appears escaped on the page.
+// what `unfold lag --json`, `unfold dim --json`, … print for the same file; its regime works in
+// the same embedding with the lyapunov stage's λ1 and the fractal stage's D2; analysis.Run
+// called as a library on the same record gives every stage object of result.json; a file name
+// holding <script> appears escaped on the page.
 func TestReportSameJSONAsCommands(t *testing.T) {
 	dir := t.TempDir()
 	p, raw := writeTX(t, dir, 3000, 0.01)
@@ -310,6 +316,31 @@ func TestReportSameJSONAsCommands(t *testing.T) {
 	}
 	if l1, ev := lookup(m, "lyapunov.lambda_max"), lookup(m, "regime.evidence.lyapunov.value"); l1 == nil || l1 != ev {
 		t.Errorf("regime's λ1 evidence %v, lyapunov's λ1 %v: want the same number", ev, l1)
+	}
+	// the library: analysis.Run on the record as read gives the same objects (issue 19)
+	rec, src, err := series.ReadFile(evil, nil, series.ReadOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	lib, err := analysis.Run(context.Background(), rec, analysis.Options{Threads: 2, Path: evil, Version: versionString(),
+		Input: &analysis.Input{Path: src.Path, SHA256: src.SHA256, Samples: rec.Len(), Dt: rec.Dt}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	lb, err := json.Marshal(lib)
+	if err != nil {
+		t.Fatal(err)
+	}
+	lm := decode(t, string(lb))
+	for _, k := range analysis.Keys {
+		if _, ok := m[k]; ok && !reflect.DeepEqual(m[k], lm[k]) {
+			a, _ := json.Marshal(m[k])
+			b, _ := json.Marshal(lm[k])
+			t.Errorf("analysis.Run's %q object differs from the report's:\n%s", k, lineDiff(string(a), string(b)))
+		}
+	}
+	if lib.Embedding == nil || lib.Embedding.Lag.Value != int(lookup(m, "lag.lag").(float64)) || lib.Embedding.Dim.Value != int(lookup(m, "dim.dimension").(float64)) {
+		t.Errorf("analysis.Run's embedding %+v differs from the report's lag and dimension", lib.Embedding)
 	}
 	page, err := os.ReadFile(filepath.Join(out, "report.html"))
 	if err != nil {
