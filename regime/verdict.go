@@ -263,7 +263,7 @@ func fmtFloats(f []float64) string {
 type Options struct {
 	// Lag, Dim and Theiler override the embedding choices of package embed (0: choose).
 	// Embedding, when not nil, is used instead of all three (its Theiler window 0 means no
-	// window) and its dimension scan gives the Cao evidence; see AnalyzeGiven.
+	// window) and its dimension scan gives the Cao evidence; see ChooseEmbedding.
 	Lag, Dim, Theiler int
 	Embedding         *embed.Choice
 	// Dimension is D2 with its scaling range when the caller estimated it; nil estimates it
