@@ -262,7 +262,14 @@ func fmtFloats(f []float64) string {
 // Options configure Analyze. The zero value chooses everything automatically.
 type Options struct {
 	// Lag, Dim and Theiler override the embedding choices of package embed (0: choose).
+	// Embedding, when not nil, is used instead of all three (its Theiler window 0 means no
+	// window) and its dimension scan gives the Cao evidence; see ChooseEmbedding.
 	Lag, Dim, Theiler int
+	Embedding         *embed.Choice
+	// Dimension is D2 with its scaling range when the caller estimated it; nil estimates it
+	// with package dimension's defaults unless NoDimension is set.
+	Dimension   *dimension.Result
+	NoDimension bool
 	// Surrogates is the number of IAAFT surrogates (0 means 19: one-sided 5 %).
 	Surrogates int
 	// Seed seeds surrogates, the 0-1 test's c and bootstraps.
@@ -321,7 +328,8 @@ func Analyze(x []float64, dt float64, opt Options) (*Analysis, error) {
 	}
 	// Embedding.
 	ev.Lag, ev.Dim, ev.Theiler = opt.Lag, opt.Dim, opt.Theiler
-	if ev.Lag <= 0 || ev.Theiler <= 0 {
+	dc, err := givenEmbedding(ev, an, opt.Embedding)
+	if opt.Embedding == nil && (ev.Lag <= 0 || ev.Theiler <= 0) {
 		lc, err := embed.ChooseLag(xa, embed.LagOptions{})
 		if err != nil {
 			return nil, fmt.Errorf("regime: lag: %w", err)
@@ -333,8 +341,10 @@ func Analyze(x []float64, dt float64, opt Options) (*Analysis, error) {
 			ev.Theiler = embed.DefaultTheiler(lc.ACF)
 		}
 	}
-	dc, err := embed.ChooseDimension(xa, embed.DimOptions{Lag: ev.Lag, Theiler: ev.Theiler, MaxDim: 8, Threads: threads})
-	if err == nil {
+	if opt.Embedding == nil {
+		dc, err = embed.ChooseDimension(xa, embed.DimOptions{Lag: ev.Lag, Theiler: ev.Theiler, MaxDim: 8, Threads: threads})
+	}
+	if err == nil && dc != nil {
 		finite := 0
 		for _, c := range dc.Cao {
 			if !math.IsNaN(c.E2) && !math.IsInf(c.E2, 0) {
@@ -379,7 +389,11 @@ func Analyze(x []float64, dt float64, opt Options) (*Analysis, error) {
 	maxDim := min(max(ev.Dim+3, 5), 8)
 	// D2 from at most 10⁴ samples: enough for dimensions up to 2·log10(10⁴) = 8 (Eckmann &
 	// Ruelle 1992), at a quarter of the pair-counting cost of 2·10⁴.
-	if d, err := dimension.CorrelationDimension(xa[:min(len(xa), 10000)], dimension.Options{Lag: ev.Lag, MaxDim: maxDim, Theiler: ev.Theiler, Seed: opt.Seed, Threads: threads}); err == nil {
+	if opt.Dimension != nil {
+		ev.Dimension = opt.Dimension
+	} else if opt.NoDimension {
+		// the caller's D2 estimate gave no answer: no D2 evidence
+	} else if d, err := dimension.CorrelationDimension(xa[:min(len(xa), 10000)], dimension.Options{Lag: ev.Lag, MaxDim: maxDim, Theiler: ev.Theiler, Seed: opt.Seed, Threads: threads}); err == nil {
 		ev.Dimension = d
 	}
 	// Surrogate tests.

@@ -1,8 +1,6 @@
 package main
 
 import (
-	"bytes"
-	"encoding/json"
 	"errors"
 	"fmt"
 	"io"
@@ -17,7 +15,7 @@ import (
 	"github.com/schollz/progressbar/v3"
 	"golang.org/x/term"
 
-	"unfold/internal/safejson"
+	"unfold/analysis"
 	"unfold/series"
 )
 
@@ -79,14 +77,16 @@ func exitCode(err error) int {
 	var ie *series.InputError
 	var ue *usageError
 	var na *noAnswerError
+	var ana *analysis.NoAnswerError
+	var aue *analysis.UsageError
 	var ce *series.ErrConstant
 	var pe *fs.PathError
 	switch {
 	case err == nil:
 		return exitOK
-	case errors.As(err, &na), errors.As(err, &ce):
+	case errors.As(err, &na), errors.As(err, &ana), errors.As(err, &ce):
 		return exitNoAnswer
-	case errors.As(err, &ie), errors.As(err, &ue), errors.As(err, &pe):
+	case errors.As(err, &ie), errors.As(err, &ue), errors.As(err, &aue), errors.As(err, &pe):
 		return exitBadInput
 	default:
 		return exitNoAnswer
@@ -185,31 +185,8 @@ func (a *app) progress(label string) func(done, total int) {
 	}
 }
 
-// versionString is the text of `unfold --version` and the "version" field of JSON output.
-func versionString() string {
-	c := commit
-	if c == "" {
-		if info, ok := debug.ReadBuildInfo(); ok {
-			for _, s := range info.Settings {
-				if s.Key == "vcs.revision" && len(s.Value) >= 12 {
-					c = s.Value[:12]
-				}
-			}
-		}
-	}
-	if c == "" {
-		c = "unknown"
-	}
-	return version + " (commit " + c + ")"
-}
-
 // inputInfo is the "input" object of every JSON output (DESIGN.md §3).
-type inputInfo struct {
-	Path    string  `json:"path"`
-	SHA256  string  `json:"sha256"`
-	Samples int     `json:"samples"`
-	Dt      float64 `json:"dt"`
-}
+type inputInfo = analysis.Input
 
 // emitJSON writes exactly one JSON object on stdout: "command", "version", "input" (when in is
 // not nil) and "parameters", followed by the fields of body (a struct or map that marshals to a
@@ -223,54 +200,15 @@ func (a *app) emitJSON(command string, in *inputInfo, params any, body any) erro
 	return err
 }
 
-// buildJSON returns the indented JSON object that emitJSON prints (with its final newline),
-// for callers that keep it instead of printing it (the report).
+// buildJSON returns the indented JSON object that emitJSON prints (with its final newline).
 func buildJSON(command string, in *inputInfo, params any, body any) ([]byte, error) {
-	var buf bytes.Buffer
-	buf.WriteString(`{"command":`)
-	head := []any{command, versionString()}
-	b, _ := json.Marshal(head[0])
-	buf.Write(b)
-	buf.WriteString(`,"version":`)
-	b, _ = json.Marshal(head[1])
-	buf.Write(b)
-	if in != nil {
-		buf.WriteString(`,"input":`)
-		b, err := json.Marshal(in)
-		if err != nil {
-			return nil, fmt.Errorf("%s: encoding JSON input: %w", command, err)
-		}
-		buf.Write(b)
-	}
-	if params == nil {
-		params = struct{}{}
-	}
-	b, _, err := safejson.Marshal(params) // non-finite numbers as null; cautions: see internal/safejson
-	if err != nil {
-		return nil, fmt.Errorf("%s: encoding JSON parameters: %w", command, err)
-	}
-	buf.WriteString(`,"parameters":`)
-	buf.Write(b)
-	if body != nil {
-		b, _, err := safejson.Marshal(body)
-		if err != nil {
-			return nil, fmt.Errorf("%s: encoding JSON result: %w", command, err)
-		}
-		b = bytes.TrimSpace(b)
-		if len(b) < 2 || b[0] != '{' {
-			return nil, fmt.Errorf("%s: JSON result is not an object", command)
-		}
-		if inner := bytes.TrimSpace(b[1 : len(b)-1]); len(inner) > 0 {
-			buf.WriteByte(',')
-			buf.Write(inner)
-		}
-	}
-	buf.WriteString("}\n")
-	var out bytes.Buffer
-	if err := json.Indent(&out, buf.Bytes(), "", "  "); err != nil {
-		return nil, fmt.Errorf("%s: JSON: %w", command, err)
-	}
-	return out.Bytes(), nil
+	return analysis.Envelope(command, versionString(), in, params, body)
+}
+
+// env is what the analysis stages share, from the global flags and the input flags in.
+func (a *app) env(in *inputOptions) *analysis.Env {
+	return &analysis.Env{Threads: a.threads(), Seed: a.global.Seed, Notef: a.notef, Progress: a.progress,
+		Read: in.read, Prep: in.prep}
 }
 
 // table writes rows as aligned columns on stdout (the human output of a command).

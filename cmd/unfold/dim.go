@@ -9,9 +9,9 @@ import (
 	"github.com/spf13/pflag"
 	"gonum.org/v1/plot/vg"
 
+	"unfold/analysis"
 	"unfold/embed"
 	"unfold/neighbors"
-	"unfold/series"
 )
 
 type dimOptions struct {
@@ -66,218 +66,43 @@ dimension up to --max-dim qualifies.`,
 
 // addDimFlags binds the flags of `dim` (besides the input flags) to o, with their defaults.
 func addDimFlags(f *pflag.FlagSet, o *dimOptions) {
-	f.IntVar(&o.lag, "lag", 0, "delay in samples (default: chosen from the mutual information, as 'unfold lag')")
-	f.IntVar(&o.maxDim, "max-dim", 10, "largest dimension scanned")
-	f.IntVar(&o.theiler, "theiler", -1, "Theiler window in samples: neighbours closer in time are excluded (default: 1/e decay time of the autocorrelation; 0 excludes only the point itself)")
-	f.Float64Var(&o.rtol, "rtol", 15, "false-neighbour distance-ratio threshold R_tol")
-	f.Float64Var(&o.atol, "atol", 2, "false-neighbour size threshold A_tol (in RMS deviations of the signal)")
-	f.Float64Var(&o.threshold, "fnn-threshold", 0.01, "false fraction below which a dimension is accepted")
-	f.StringVar(&o.norm, "norm", "euclidean", "distance: euclidean or max")
+	d := analysis.DefaultDimOptions()
+	f.IntVar(&o.lag, "lag", d.Lag, "delay in samples (default: chosen from the mutual information, as 'unfold lag')")
+	f.IntVar(&o.maxDim, "max-dim", d.MaxDim, "largest dimension scanned")
+	f.IntVar(&o.theiler, "theiler", d.Theiler, "Theiler window in samples: neighbours closer in time are excluded (default: 1/e decay time of the autocorrelation; 0 excludes only the point itself)")
+	f.Float64Var(&o.rtol, "rtol", d.RTol, "false-neighbour distance-ratio threshold R_tol")
+	f.Float64Var(&o.atol, "atol", d.ATol, "false-neighbour size threshold A_tol (in RMS deviations of the signal)")
+	f.Float64Var(&o.threshold, "fnn-threshold", d.Threshold, "false fraction below which a dimension is accepted")
+	f.StringVar(&o.norm, "norm", d.Norm, "distance: euclidean or max")
 	f.StringVar(&o.csvPath, "csv", "", "write the curves to this CSV file (dimension, fnn_fraction, criterion1, criterion2, e1, e2)")
 	f.StringVar(&o.plot, "plot", "", "draw the curves with the chosen dimension marked (.png or .svg)")
 }
 
-type dimParams struct {
-	prepParams
-	Lag          int     `json:"lag"`
-	LagMethod    string  `json:"lag_method"`
-	MaxDim       int     `json:"max_dim"`
-	Theiler      int     `json:"theiler"`
-	TheilerFrom  string  `json:"theiler_from"`
-	RTol         float64 `json:"rtol"`
-	ATol         float64 `json:"atol"`
-	FNNThreshold float64 `json:"fnn_threshold"`
-	Norm         string  `json:"norm"`
-	Threads      int     `json:"threads"`
-}
-
-type fnnJSON struct {
-	Dimension  int     `json:"dimension"`
-	Fraction   float64 `json:"fraction"`
-	Criterion1 float64 `json:"criterion1"`
-	Criterion2 float64 `json:"criterion2"`
-	Points     int     `json:"points"`
-}
-
-type caoJSON struct {
-	Dimension int     `json:"dimension"`
-	E1        float64 `json:"e1"`
-	E2        float64 `json:"e2"`
-}
-
-type dimResult struct {
-	Dimension      int       `json:"dimension"`
-	Lag            int       `json:"lag"`
-	LagTime        float64   `json:"lag_time"`
-	Theiler        int       `json:"theiler"`
-	Method         string    `json:"method"`
-	Reason         string    `json:"reason"`
-	FNNDimension   int       `json:"fnn_dimension"`
-	CaoDimension   int       `json:"cao_dimension"`
-	NoiseLike      bool      `json:"consistent_with_noise"`
-	FalseNeighbors []fnnJSON `json:"false_neighbors"`
-	Cao            []caoJSON `json:"cao"`
-	Cautions       []string  `json:"cautions"`
-}
-
 // parseNorm reads --norm.
-func parseNorm(s string) (neighbors.Norm, error) {
-	switch s {
-	case "euclidean":
-		return neighbors.Euclidean, nil
-	case "max":
-		return neighbors.Max, nil
-	}
-	return 0, usagef("--norm %q: want euclidean or max", s)
-}
+func parseNorm(s string) (neighbors.Norm, error) { return analysis.ParseNorm(s) }
 
-// embeddingDefaults returns the lag (chosen when lag ≤ 0) with the rule that gave it, and the
-// Theiler window (the 1/e decay time when theiler < 0) with where it came from.
-func (a *app) embeddingDefaults(x []float64, lag, theiler int) (int, string, int, string, []string, error) {
-	var cautions []string
-	lagMethod := "given"
-	if lag <= 0 {
-		c, err := embed.ChooseLag(x, embed.LagOptions{MI: embed.MIOptions{Threads: a.threads()}})
-		if err != nil {
-			return 0, "", 0, "", nil, err
-		}
-		lag, lagMethod = c.Lag, c.Method
-		cautions = append(cautions, c.Cautions...)
-		a.notef("lag %d chosen (%s): %s", lag, c.Method, c.Reason)
-	}
-	from := "given"
-	if theiler < 0 {
-		acf, err := embed.AutocorrelationFFT(x, min(len(x)-1, 5000))
-		if err != nil {
-			return 0, "", 0, "", nil, err
-		}
-		theiler, from = embed.DefaultTheiler(acf), "autocorrelation-1/e-decay"
-	}
-	return lag, lagMethod, theiler, from, cautions, nil
-}
-
-// chooseDimension is the dimension choice of the commands that embed (embed, lyapunov) when
-// --dim is not given: embed.ChooseDimension with the lag and Theiler window already chosen, its
-// reason printed on stderr. A record for which no dimension up to maxDim qualifies is a
-// "no answer" that says so and suggests --dim.
-func (a *app) chooseDimension(command, path string, x []float64, lag, theiler, maxDim int, norm neighbors.Norm) (*embed.DimChoice, error) {
-	c, err := embed.ChooseDimension(x, embed.DimOptions{Lag: lag, MaxDim: maxDim, Theiler: theiler,
-		Norm: norm, Threads: a.threads(), Progress: a.progress("false neighbours")})
-	if err != nil {
-		return nil, noAnswer(fmt.Errorf("%s: %s: choosing the dimension: %w", command, path, err))
-	}
-	if c.Dimension == 0 {
-		return nil, noAnswer(fmt.Errorf("%s: %s: no embedding dimension up to %d qualifies (%s); give --dim", command, path, maxDim, c.Reason))
-	}
-	a.notef("dimension %d chosen (%s): %s", c.Dimension, c.Method, c.Reason)
-	return c, nil
-}
-
-// embeddingChoice is the delay embedding a command works in, each part with the rule that gave it.
-type embeddingChoice struct {
-	lag, theiler, dim                 int
-	lagMethod, theilerFrom, dimMethod string
-	cautions                          []string
-}
-
-// chooseEmbedding fills in what the flags leave open — lag ≤ 0, theiler < 0, dim 0 — by embed's
-// rules (embeddingDefaults, chooseDimension). lagMethod and dimMethod name the rules a caller
-// already used for lag and dim (the report's earlier stages); "" means given, or chosen here.
-func (a *app) chooseEmbedding(command, path string, x []float64, lag, theiler, dim, maxDim int, norm neighbors.Norm, lagMethod, dimMethod string) (embeddingChoice, error) {
-	lag, method, theiler, theilerFrom, cautions, err := a.embeddingDefaults(x, lag, theiler)
-	if err != nil {
-		return embeddingChoice{}, noAnswer(fmt.Errorf("%s: %s: %w", command, path, err))
-	}
-	if lagMethod == "" {
-		lagMethod = method
-	}
-	if dimMethod == "" {
-		dimMethod = "given"
-	}
-	if dim == 0 {
-		c, err := a.chooseDimension(command, path, x, lag, theiler, maxDim, norm)
-		if err != nil {
-			return embeddingChoice{}, err
-		}
-		dim, dimMethod = c.Dimension, c.Method
-		cautions = append(cautions, c.Cautions...)
-	}
-	return embeddingChoice{lag: lag, theiler: theiler, dim: dim, lagMethod: lagMethod,
-		theilerFrom: theilerFrom, dimMethod: dimMethod, cautions: cautions}, nil
-}
-
-// checkDimOptions validates the flags of `dim`.
-func checkDimOptions(o *dimOptions) (neighbors.Norm, error) {
-	norm, err := parseNorm(o.norm)
-	if err != nil {
-		return 0, err
-	}
-	if o.maxDim < 1 || o.lag < 0 || !(o.rtol > 0) || !(o.atol > 0) || !(o.threshold > 0 && o.threshold < 1) {
-		return 0, usagef("dim: want --max-dim ≥ 1, --lag ≥ 0, --rtol > 0, --atol > 0, 0 < --fnn-threshold < 1")
-	}
-	return norm, nil
-}
-
-// dimCompute chooses the dimension of s and returns the choice with the JSON parameters and
-// body of `dim`; the command and the report both use it. lagMethod names the rule that chose
-// o.lag when a caller chose it already (the report's lag stage); "" means o.lag was given (or
-// is 0, to be chosen here).
-func (a *app) dimCompute(path string, s *series.Series, o *dimOptions, lagMethod string) (*embed.DimChoice, dimParams, dimResult, error) {
-	norm, err := checkDimOptions(o)
-	if err != nil {
-		return nil, dimParams{}, dimResult{}, err
-	}
-	if err := series.CheckVariable(s.Values); err != nil {
-		return nil, dimParams{}, dimResult{}, err
-	}
-	lag, method, theiler, theilerFrom, cautions, err := a.embeddingDefaults(s.Values, o.lag, o.theiler)
-	if err != nil {
-		return nil, dimParams{}, dimResult{}, noAnswer(fmt.Errorf("dim: %s: %w", path, err))
-	}
-	if lagMethod == "" {
-		lagMethod = method
-	}
-	c, err := embed.ChooseDimension(s.Values, embed.DimOptions{Lag: lag, MaxDim: o.maxDim, Theiler: theiler,
-		RTol: o.rtol, ATol: o.atol, Threshold: o.threshold, Norm: norm, Threads: a.threads(),
-		Progress: a.progress("false neighbours")})
-	if err != nil {
-		return nil, dimParams{}, dimResult{}, noAnswer(fmt.Errorf("dim: %s: %w", path, err))
-	}
-	res := dimResult{Dimension: c.Dimension, Lag: lag, LagTime: float64(lag) * s.Dt, Theiler: theiler,
-		Method: c.Method, Reason: c.Reason, FNNDimension: c.FNNDim, CaoDimension: c.CaoDim, NoiseLike: c.NoiseLike,
-		Cautions: append(cautions, c.Cautions...)}
-	if res.Cautions == nil {
-		res.Cautions = []string{}
-	}
-	for _, p := range c.FNN {
-		res.FalseNeighbors = append(res.FalseNeighbors, fnnJSON{p.Dim, p.Fraction, p.Criterion1, p.Criterion2, p.Points})
-	}
-	res.Cao = []caoJSON{}
-	for _, p := range c.Cao {
-		res.Cao = append(res.Cao, caoJSON{p.Dim, p.E1, p.E2})
-	}
-	p := dimParams{prepParams: newPrepParams(s, &o.in), Lag: lag, LagMethod: lagMethod, MaxDim: c.MaxDim,
-		Theiler: theiler, TheilerFrom: theilerFrom, RTol: c.RTol, ATol: c.ATol, FNNThreshold: c.Threshold,
-		Norm: norm.String(), Threads: a.threads()}
-	return c, p, res, nil
+func (o *dimOptions) options() analysis.DimOptions {
+	return analysis.DimOptions{Lag: o.lag, Theiler: o.theiler, MaxDim: o.maxDim, RTol: o.rtol, ATol: o.atol,
+		Threshold: o.threshold, Norm: o.norm}
 }
 
 func (a *app) runDim(path string, o *dimOptions) error {
 	if err := checkFigurePath(o.plot); err != nil {
 		return err
 	}
-	norm, err := checkDimOptions(o)
-	if err != nil {
+	if err := analysis.CheckDim(o.options()); err != nil {
 		return err
 	}
+	norm, _ := parseNorm(o.norm)
 	s, in, err := a.loadInput(path, &o.in)
 	if err != nil {
 		return err
 	}
-	c, p, res, err := a.dimCompute(path, s, o, "")
+	ch, p, res, err := a.env(&o.in).Dim(path, s, o.options())
 	if err != nil {
 		return err
 	}
+	c := ch.DimChoice
 	lag, lagMethod, theiler, theilerFrom := p.Lag, p.LagMethod, p.Theiler, p.TheilerFrom
 	if o.csvPath != "" {
 		n := len(c.FNN)

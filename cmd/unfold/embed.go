@@ -1,22 +1,18 @@
 package main
 
 import (
-	"bufio"
 	"fmt"
 	"path/filepath"
 	"strconv"
 	"strings"
 
-	"codeberg.org/sbinet/npyio"
 	"github.com/spf13/cobra"
 	"github.com/spf13/pflag"
-	"gonum.org/v1/gonum/mat"
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/vg"
 
+	"unfold/analysis"
 	"unfold/embed"
-	"unfold/neighbors"
-	"unfold/series"
 )
 
 type embedOptions struct {
@@ -67,83 +63,23 @@ temporal correlation dominates until the curves stop rising.`,
 
 // addEmbedFlags binds the flags of `embed` (besides the input flags) to o, with their defaults.
 func addEmbedFlags(f *pflag.FlagSet, o *embedOptions) {
+	d := analysis.DefaultEmbedOptions()
 	f.StringVarP(&o.output, "output", "o", "", "write the vectors to this file (.csv or .npy)")
-	f.IntVar(&o.lag, "lag", 0, "delay in samples (default: chosen as 'unfold lag')")
-	f.IntVar(&o.dim, "dim", 0, "embedding dimension (default: chosen as 'unfold dim')")
-	f.IntVar(&o.maxDim, "max-dim", 10, "largest dimension scanned when --dim is not given")
-	f.IntVar(&o.theiler, "theiler", -1, "Theiler window in samples for choosing the dimension and marking the space–time plot (default: 1/e decay time of the autocorrelation)")
+	f.IntVar(&o.lag, "lag", d.Lag, "delay in samples (default: chosen as 'unfold lag')")
+	f.IntVar(&o.dim, "dim", d.Dim, "embedding dimension (default: chosen as 'unfold dim')")
+	f.IntVar(&o.maxDim, "max-dim", d.MaxDim, "largest dimension scanned when --dim is not given")
+	f.IntVar(&o.theiler, "theiler", d.Theiler, "Theiler window in samples for choosing the dimension and marking the space–time plot (default: 1/e decay time of the autocorrelation)")
 	f.StringVar(&o.plot, "plot", "", "draw the state-space picture (.png or .svg)")
 	f.StringVar(&o.stp, "stp", "", "draw the space–time separation plot (.png or .svg)")
 	f.IntVar(&o.stpMaxDt, "stp-max-dt", 0, "largest time separation of the space–time plot, in samples (default: 5× the Theiler window, at least 50)")
-	f.Float64Var(&o.azimuth, "azimuth", -45, "rotation of the 3-D view about the x(t+2τ) axis, degrees")
-	f.Float64Var(&o.elevation, "elevation", 30, "elevation of the 3-D view above the x(t)–x(t+τ) plane, degrees")
+	f.Float64Var(&o.azimuth, "azimuth", d.Azimuth, "rotation of the 3-D view about the x(t+2τ) axis, degrees")
+	f.Float64Var(&o.elevation, "elevation", d.Elevation, "elevation of the 3-D view above the x(t)–x(t+τ) plane, degrees")
 	f.IntVar(&o.densityAbove, "density-above", 20000, "draw a density image instead of points above this many vectors")
 }
 
-type embedParams struct {
-	prepParams
-	Lag       int     `json:"lag"`
-	LagMethod string  `json:"lag_method"`
-	Dim       int     `json:"dim"`
-	DimMethod string  `json:"dim_method"`
-	Theiler   int     `json:"theiler"`
-	Azimuth   float64 `json:"azimuth"`
-	Elevation float64 `json:"elevation"`
-	Threads   int     `json:"threads"`
-}
-
-type stpJSON struct {
-	Dt       int       `json:"dt"`
-	Quantile []float64 `json:"distance"`
-}
-
-type embedResult struct {
-	Lag       int      `json:"lag"`
-	LagTime   float64  `json:"lag_time"`
-	Dimension int      `json:"dimension"`
-	Vectors   int      `json:"vectors"`
-	Output    string   `json:"output"`
-	Plot      string   `json:"plot"`
-	STP       string   `json:"stp_plot"`
-	STPCurve  *stpBody `json:"space_time_separation,omitempty"`
-	Cautions  []string `json:"cautions"`
-}
-
-type stpBody struct {
-	Fractions []float64 `json:"fractions"`
-	Curve     []stpJSON `json:"curve"`
-}
-
-// embedCompute builds the delay vectors of s (choosing what o does not give) and returns them
-// with the Theiler window and the JSON parameters and body of `embed`; the command and the
-// report both use it. lagMethod and dimMethod name the rules that chose o.lag and o.dim when
-// a caller chose them already (the report's earlier stages); "" means given or chosen here.
-func (a *app) embedCompute(path string, s *series.Series, o *embedOptions, lagMethod, dimMethod string) (embed.Embedding, int, embedParams, embedResult, error) {
-	fail := func(err error) (embed.Embedding, int, embedParams, embedResult, error) {
-		return embed.Embedding{}, 0, embedParams{}, embedResult{}, err
-	}
-	if err := series.CheckVariable(s.Values); err != nil {
-		return fail(err)
-	}
-	x := s.Values
-	ec, err := a.chooseEmbedding("embed", path, x, o.lag, o.theiler, o.dim, o.maxDim, neighbors.Euclidean, lagMethod, dimMethod)
-	if err != nil {
-		return fail(err)
-	}
-	lag, theiler, dim, cautions := ec.lag, ec.theiler, ec.dim, ec.cautions
-	lagMethod, dimMethod = ec.lagMethod, ec.dimMethod
-	e, err := embed.New(x, lag, dim)
-	if err != nil {
-		return fail(noAnswer(fmt.Errorf("embed: %s: %w", path, err)))
-	}
-	res := embedResult{Lag: lag, LagTime: float64(lag) * s.Dt, Dimension: dim, Vectors: e.Len(),
-		Output: o.output, Plot: o.plot, STP: o.stp, Cautions: cautions}
-	if res.Cautions == nil {
-		res.Cautions = []string{}
-	}
-	p := embedParams{prepParams: newPrepParams(s, &o.in), Lag: lag, LagMethod: lagMethod, Dim: dim, DimMethod: dimMethod,
-		Theiler: theiler, Azimuth: o.azimuth, Elevation: o.elevation, Threads: a.threads()}
-	return e, theiler, p, res, nil
+func (o *embedOptions) options() analysis.EmbedOptions {
+	return analysis.EmbedOptions{Lag: o.lag, Dim: o.dim, MaxDim: o.maxDim, Theiler: o.theiler, Azimuth: o.azimuth,
+		Elevation: o.elevation, Output: o.output, Plot: o.plot, STP: o.stp}
 }
 
 func (a *app) runEmbed(path string, o *embedOptions) error {
@@ -167,7 +103,8 @@ func (a *app) runEmbed(path string, o *embedOptions) error {
 	if err != nil {
 		return err
 	}
-	e, theiler, p, res, err := a.embedCompute(path, s, o, "", "")
+	e, _, p, res, err := a.env(&o.in).Embed(path, s, o.options(), nil, nil)
+	theiler := p.Theiler
 	if err != nil {
 		return err
 	}
@@ -208,13 +145,13 @@ func (a *app) runEmbed(path string, o *embedOptions) error {
 		if err := writeFigureFile(o.stp, path, 9*vg.Inch, 6*vg.Inch, [][]*plot.Plot{{p}}); err != nil {
 			return err
 		}
-		body := &stpBody{Fractions: st.Fractions}
+		body := &analysis.STPBody{Fractions: st.Fractions}
 		for k, d := range st.Dt {
 			q := make([]float64, len(st.Fractions))
 			for f := range q {
 				q[f] = st.Dist[f][k]
 			}
-			body.Curve = append(body.Curve, stpJSON{Dt: d, Quantile: q})
+			body.Curve = append(body.Curve, analysis.STPJSON{Dt: d, Quantile: q})
 		}
 		res.STPCurve = body
 	}
@@ -239,41 +176,4 @@ func (a *app) runEmbed(path string, o *embedOptions) error {
 		fmt.Fprintf(a.stdout, "caution: %s\n", w)
 	}
 	return nil
-}
-
-// writeVectors writes the delay vectors as CSV (header x(t),x(t+τ)… in samples) or .npy (an
-// N×m float64 array), through an atomic file.
-func writeVectors(path, input, ext string, e embed.Embedding, name string) error {
-	if name == "" {
-		name = "x"
-	}
-	f, err := series.CreateAtomic(path, input)
-	if err != nil {
-		return err
-	}
-	defer f.Abort()
-	if ext == ".npy" {
-		bw := bufio.NewWriterSize(f, 1<<20)
-		if err := npyio.Write(bw, mat.NewDense(e.Len(), e.Dim, e.Dense())); err != nil {
-			return fmt.Errorf("writing %s: %w", path, err)
-		}
-		if err := bw.Flush(); err != nil {
-			return fmt.Errorf("writing %s: %w", path, err)
-		}
-		return f.Commit()
-	}
-	header := make([]string, e.Dim)
-	cols := make([][]float64, e.Dim)
-	for k := range header {
-		if k == 0 {
-			header[k] = name + "(t)"
-		} else {
-			header[k] = fmt.Sprintf("%s(t+%d)", name, k*e.Lag)
-		}
-		cols[k] = e.X[k*e.Lag : k*e.Lag+e.Len()]
-	}
-	if err := series.WriteCSV(f, header, cols...); err != nil {
-		return fmt.Errorf("writing %s: %w", path, err)
-	}
-	return f.Commit()
 }

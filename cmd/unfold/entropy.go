@@ -1,17 +1,15 @@
 package main
 
 import (
-	"crypto/sha256"
-	"encoding/hex"
 	"errors"
 	"fmt"
-	"io"
 	"os"
 	"strconv"
 
 	"github.com/spf13/cobra"
 	"github.com/spf13/pflag"
 
+	"unfold/analysis"
 	"unfold/series"
 	"unfold/symbolic"
 )
@@ -63,117 +61,16 @@ the smallest and largest complexity possible at that entropy (Martin, Plastino &
 
 // addEntropyFlags binds the flags of entropy (the report takes their defaults from here).
 func addEntropyFlags(f *pflag.FlagSet, o *entropyOptions) {
-	f.IntVar(&o.maxLength, "max-length", 0, "longest word length L (default: the supported length plus 2)")
-	f.StringVar(&o.estimator, "estimator", "grassberger", "block-entropy estimator: grassberger, miller-madow or plugin")
+	d := analysis.DefaultEntropyOptions()
+	f.IntVar(&o.maxLength, "max-length", d.MaxLength, "longest word length L (default: the supported length plus 2)")
+	f.StringVar(&o.estimator, "estimator", d.Estimator, "block-entropy estimator: grassberger, miller-madow or plugin")
 	f.IntVar(&o.permutation, "permutation", 0, "permutation entropy of order D (2 … 10) of a numeric signal instead of a symbol stream")
 	f.IntVar(&o.delay, "delay", 1, "with --permutation: spacing of the samples of a pattern")
-	f.IntVar(&o.lzMax, "lz-max", 20_000_000, "Lempel–Ziv complexity of the first N symbols only (it keeps them in memory, about 9·N bytes); block entropies always use the whole stream")
+	f.IntVar(&o.lzMax, "lz-max", d.LZMax, "Lempel–Ziv complexity of the first N symbols only (it keeps them in memory, about 9·N bytes); block entropies always use the whole stream")
 }
 
-type entropyParams struct {
-	Estimator     string `json:"estimator"`
-	MaxLength     int    `json:"max_length"`
-	RateLength    int    `json:"rate_length"`
-	Alphabet      string `json:"alphabet"`
-	Extrapolation string `json:"extrapolation"`
-	LZMax         int    `json:"lz_max"`
-}
-
-type lz76JSON struct {
-	Phrases    int     `json:"phrases"`
-	Normalized float64 `json:"normalized"`
-}
-
-type entropyResult struct {
-	EntropyRate    float64                `json:"entropy_rate"`
-	ExcessEntropy  float64                `json:"excess_entropy"`
-	BlockEntropies []symbolic.Block       `json:"block_entropies"`
-	EntropyRates   []symbolic.Rate        `json:"entropy_rates"`
-	LZ76           float64                `json:"lz76"`
-	LZ76Detail     lz76JSON               `json:"lz76_phrases"`
-	Partition      symbolic.PartitionInfo `json:"partition"`
-	Source         symbolic.Source        `json:"source"`
-	Cautions       []string               `json:"cautions"`
-}
-
-// entropyCompute reads the symbol stream r (named path, checked against its sidecar sc) and
-// returns the JSON input, parameters and body of `entropy`; the command and the report both
-// use it. The input's SHA-256 is that of the stream's bytes as read.
-func (a *app) entropyCompute(path string, r io.Reader, sc *symbolic.Sidecar, o *entropyOptions) (*inputInfo, entropyParams, entropyResult, error) {
-	est, err := symbolic.ParseEstimator(o.estimator)
-	if err != nil {
-		return nil, entropyParams{}, entropyResult{}, usagef("entropy: --estimator: %v", err)
-	}
-	h := sha256.New()
-	sr, err := symbolic.NewReader(io.TeeReader(r, h), sc, path)
-	if err != nil {
-		return nil, entropyParams{}, entropyResult{}, err
-	}
-	k := sc.AlphabetSize
-	maxL := o.maxLength
-	if maxL == 0 {
-		maxL = symbolic.DefaultMaxLength(sc.Count, k)
-	}
-	if lim := symbolic.MaxWordLength(k); maxL > lim {
-		return nil, entropyParams{}, entropyResult{}, usagef("entropy: --max-length %d is too long for %d symbols (at most %d)", maxL, k, lim)
-	}
-	if k < 2 {
-		return nil, entropyParams{}, entropyResult{}, noAnswer(fmt.Errorf("entropy: %s: the alphabet has one symbol: every entropy is 0", path))
-	}
-	bc, err := symbolic.NewBlockCounter(k, maxL)
-	if err != nil {
-		return nil, entropyParams{}, entropyResult{}, usagef("entropy: %v", err)
-	}
-	// block counts stream over the whole stream; LZ76 needs its symbols in memory, so it
-	// keeps at most --lz-max of them
-	if o.lzMax < 2 {
-		return nil, entropyParams{}, entropyResult{}, usagef("entropy: --lz-max must be ≥ 2")
-	}
-	all := make([]uint8, 0, min(sc.Count, int64(o.lzMax)))
-	var total int64
-	buf := make([]uint8, 1<<15)
-	for {
-		n, err := sr.Read(buf)
-		if n > 0 {
-			if err := bc.Add(buf[:n]); err != nil {
-				return nil, entropyParams{}, entropyResult{}, err
-			}
-			total += int64(n)
-			if room := o.lzMax - len(all); room > 0 {
-				all = append(all, buf[:min(n, room)]...)
-			}
-		}
-		if err == io.EOF {
-			break
-		}
-		if err != nil {
-			return nil, entropyParams{}, entropyResult{}, err
-		}
-	}
-	if len(all) < 2 {
-		return nil, entropyParams{}, entropyResult{}, noAnswer(fmt.Errorf("entropy: %s: %d symbols are too few", path, len(all)))
-	}
-	res, err := symbolic.Analyze(bc, est)
-	if err != nil {
-		return nil, entropyParams{}, entropyResult{}, noAnswer(fmt.Errorf("entropy: %s: %w", path, err))
-	}
-	lz, err := symbolic.Complexity(all, k)
-	if err != nil {
-		return nil, entropyParams{}, entropyResult{}, noAnswer(fmt.Errorf("entropy: %s: %w", path, err))
-	}
-	cautions := res.Cautions
-	if int64(len(all)) < total {
-		cautions = append(cautions, fmt.Sprintf("the Lempel–Ziv complexity is of the first %d of %d symbols (--lz-max)", len(all), total))
-	}
-	if cautions == nil {
-		cautions = []string{}
-	}
-	in := &inputInfo{Path: path, SHA256: hex.EncodeToString(h.Sum(nil)), Samples: int(total), Dt: 1}
-	return in,
-		entropyParams{Estimator: res.Estimator, MaxLength: maxL, RateLength: res.RateLength, Alphabet: sc.Alphabet, Extrapolation: res.Extrapolation, LZMax: o.lzMax},
-		entropyResult{EntropyRate: res.EntropyRate, ExcessEntropy: res.ExcessEntropy, BlockEntropies: res.Blocks,
-			EntropyRates: res.Rates, LZ76: lz.Normalized, LZ76Detail: lz76JSON{Phrases: lz.Phrases, Normalized: lz.Normalized},
-			Partition: sc.Partition, Source: sc.Source, Cautions: cautions}, nil
+func (o *entropyOptions) options() analysis.EntropyOptions {
+	return analysis.EntropyOptions{MaxLength: o.maxLength, Estimator: o.estimator, LZMax: o.lzMax}
 }
 
 func (a *app) runEntropy(path string, o *entropyOptions) error {
@@ -204,7 +101,7 @@ func (a *app) runEntropy(path string, o *entropyOptions) error {
 		return err
 	}
 	defer f.Close()
-	in, p, res, err := a.entropyCompute(path, f, sc, o)
+	in, p, res, err := a.env(&o.in).Entropy(path, f, sc, o.options())
 	if err != nil {
 		return err
 	}

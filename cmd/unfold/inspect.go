@@ -5,8 +5,6 @@ import (
 	"strconv"
 
 	"github.com/spf13/cobra"
-
-	"unfold/series"
 )
 
 type inspectOptions struct {
@@ -39,58 +37,12 @@ sampling error (integrated autocorrelation time), with a plain-words caution whe
 	return cmd
 }
 
-// inspectResult is the JSON body of `inspect` (DESIGN.md §3).
-type inspectResult struct {
-	Duration       float64             `json:"duration"`
-	Mean           float64             `json:"mean"`
-	Std            float64             `json:"std"`
-	Min            float64             `json:"min"`
-	Max            float64             `json:"max"`
-	Quantization   float64             `json:"quantization"`
-	DominantPeriod float64             `json:"dominant_period"`
-	GapsFilled     int                 `json:"gaps_filled"`
-	Stationarity   series.Stationarity `json:"stationarity"`
-	Cautions       []string            `json:"cautions"`
-}
-
-type inspectParams struct {
-	Column      string `json:"column"`
-	TimeColumn  string `json:"time_column"`
-	Detrend     string `json:"detrend"`
-	Standardize bool   `json:"standardize"`
-	Decimate    int    `json:"decimate"`
-	From        string `json:"from"`
-	To          string `json:"to"`
-	Gaps        string `json:"gaps"`
-}
-
-// inspectCompute describes s and returns the JSON parameters and body of `inspect` with the
-// summary they came from; the command and the report both use it.
-func inspectCompute(path string, s *series.Series, o *inspectOptions) (inspectParams, inspectResult, *series.Summary, error) {
-	sm, err := series.Describe(s)
-	if err != nil {
-		return inspectParams{}, inspectResult{}, nil, noAnswer(fmt.Errorf("inspect: %s: %w", path, err))
-	}
-	if sm.Cautions == nil {
-		sm.Cautions = []string{}
-	}
-	p := inspectParams{Column: s.Name, TimeColumn: s.TimeName, Detrend: o.in.prep.Detrend,
-		Standardize: o.in.prep.Standardize, Decimate: max(o.in.prep.Decimate, 1),
-		From: o.in.prep.From, To: o.in.prep.To, Gaps: o.in.read.Gaps}
-	res := inspectResult{
-		Duration: sm.Duration, Mean: sm.Mean, Std: sm.Std, Min: sm.Min, Max: sm.Max,
-		Quantization: sm.Quantization, DominantPeriod: sm.DominantPeriod,
-		GapsFilled: sm.GapsFilled, Stationarity: sm.Stationarity, Cautions: sm.Cautions,
-	}
-	return p, res, sm, nil
-}
-
 func (a *app) runInspect(path string, o *inspectOptions) error {
 	s, in, err := a.loadInput(path, &o.in)
 	if err != nil {
 		return err
 	}
-	p, res, sm, err := inspectCompute(path, s, o)
+	p, res, sm, err := a.env(&o.in).Inspect(path, s)
 	if err != nil {
 		return err
 	}

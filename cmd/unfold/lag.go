@@ -1,17 +1,14 @@
 package main
 
 import (
-	"bytes"
 	"fmt"
-	"path/filepath"
 	"strconv"
-	"strings"
 
 	"github.com/spf13/cobra"
 	"github.com/spf13/pflag"
-	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/vg"
 
+	"unfold/analysis"
 	"unfold/embed"
 	"unfold/series"
 )
@@ -68,127 +65,42 @@ The suggested Theiler window (the 1/e decay time of the autocorrelation) is prin
 
 // addLagFlags binds the flags of `lag` (besides the input flags) to o, with their defaults.
 func addLagFlags(f *pflag.FlagSet, o *lagOptions) {
-	f.IntVar(&o.maxLag, "max-lag", 0, "largest lag scanned, in samples (default: max(20, 2×first zero, 4×1/e decay of the autocorrelation), at most 500 and N/4)")
-	f.StringVar(&o.mi, "mi", embed.Histogram, "mutual-information estimator: hist (equiprobable bins) or ksg (k nearest neighbours)")
-	f.IntVar(&o.bins, "bins", 0, "bins per axis for --mi hist (default: round(N^(1/3)) in [4, 128])")
-	f.IntVar(&o.k, "k", 4, "neighbours for --mi ksg")
-	f.IntVar(&o.points, "points", 20000, "pairs per lag for --mi ksg (evenly spaced in time)")
-	f.Float64Var(&o.z, "z", 3, "significance of a minimum, in standard errors")
+	d := analysis.DefaultLagOptions()
+	f.IntVar(&o.maxLag, "max-lag", d.MaxLag, "largest lag scanned, in samples (default: max(20, 2×first zero, 4×1/e decay of the autocorrelation), at most 500 and N/4)")
+	f.StringVar(&o.mi, "mi", d.MI, "mutual-information estimator: hist (equiprobable bins) or ksg (k nearest neighbours)")
+	f.IntVar(&o.bins, "bins", d.Bins, "bins per axis for --mi hist (default: round(N^(1/3)) in [4, 128])")
+	f.IntVar(&o.k, "k", d.K, "neighbours for --mi ksg")
+	f.IntVar(&o.points, "points", d.Points, "pairs per lag for --mi ksg (evenly spaced in time)")
+	f.Float64Var(&o.z, "z", d.Z, "significance of a minimum, in standard errors")
 	f.StringVar(&o.csvPath, "csv", "", "write the curves to this CSV file (lag, lag_time, mi_bits, mi_error_bits, autocorrelation)")
 	f.StringVar(&o.plot, "plot", "", "draw the curves with the chosen lag marked (.png or .svg)")
 }
 
 // prepParams are the reading and preprocessing parameters recorded in every JSON output of the
 // embedding commands.
-type prepParams struct {
-	Column      string `json:"column"`
-	Detrend     string `json:"detrend"`
-	Standardize bool   `json:"standardize"`
-	Decimate    int    `json:"decimate"`
-	From        string `json:"from"`
-	To          string `json:"to"`
-	Gaps        string `json:"gaps"`
-}
+type prepParams = analysis.PrepParams
 
 func newPrepParams(s *series.Series, o *inputOptions) prepParams {
 	return prepParams{Column: s.Name, Detrend: o.prep.Detrend, Standardize: o.prep.Standardize,
 		Decimate: max(o.prep.Decimate, 1), From: o.prep.From, To: o.prep.To, Gaps: o.read.Gaps}
 }
 
-type lagParams struct {
-	prepParams
-	Estimator string  `json:"estimator"`
-	Bins      int     `json:"bins,omitempty"`
-	K         int     `json:"k,omitempty"`
-	Points    int     `json:"points"`
-	Theiler   int     `json:"ksg_theiler,omitempty"`
-	MaxLag    int     `json:"max_lag"`
-	Z         float64 `json:"z"`
-	Threads   int     `json:"threads"`
-}
-
-type miPoint struct {
-	Lag       int     `json:"lag"`
-	Bits      float64 `json:"bits"`
-	ErrorBits float64 `json:"error_bits"`
-}
-
-type acfPoint struct {
-	Lag int     `json:"lag"`
-	R   float64 `json:"r"`
-}
-
-type lagResult struct {
-	Lag                  int        `json:"lag"`
-	LagTime              float64    `json:"lag_time"`
-	Method               string     `json:"method"`
-	Reason               string     `json:"reason"`
-	BiasBits             float64    `json:"bias_bits"`
-	AutocorrelationZero  int        `json:"autocorrelation_first_zero"`
-	AutocorrelationDecay int        `json:"autocorrelation_decay"`
-	Theiler              int        `json:"theiler"`
-	MutualInformation    []miPoint  `json:"mutual_information"`
-	Autocorrelation      []acfPoint `json:"autocorrelation"`
-	Cautions             []string   `json:"cautions"`
-}
-
-func (a *app) lagOptionsFrom(o *lagOptions) (embed.LagOptions, error) {
-	if o.mi != embed.Histogram && o.mi != embed.KSG {
-		return embed.LagOptions{}, usagef("lag: --mi %q: want hist or ksg", o.mi)
-	}
-	if o.maxLag < 0 || o.bins < 0 || o.k < 1 || o.points < 1 || !(o.z > 0) {
-		return embed.LagOptions{}, usagef("lag: --max-lag and --bins must be ≥ 0, --k and --points ≥ 1, --z > 0")
-	}
-	return embed.LagOptions{MaxLag: o.maxLag, Z: o.z, MI: embed.MIOptions{Estimator: o.mi, Bins: o.bins,
-		K: o.k, MaxPoints: o.points, Threads: a.threads()}}, nil
-}
-
-// lagCompute chooses the lag of s and returns the choice with the JSON parameters and body of
-// `lag`; the command and the report both use it.
-func (a *app) lagCompute(path string, s *series.Series, o *lagOptions) (*embed.LagChoice, lagParams, lagResult, error) {
-	lo, err := a.lagOptionsFrom(o)
-	if err != nil {
-		return nil, lagParams{}, lagResult{}, err
-	}
-	if err := series.CheckVariable(s.Values); err != nil {
-		return nil, lagParams{}, lagResult{}, err
-	}
-	c, err := embed.ChooseLag(s.Values, lo)
-	if err != nil {
-		return nil, lagParams{}, lagResult{}, noAnswer(fmt.Errorf("lag: %s: %w", path, err))
-	}
-	res := lagResult{Lag: c.Lag, LagTime: float64(c.Lag) * s.Dt, Method: c.Method, Reason: c.Reason,
-		BiasBits: c.MI.Bias / ln2, AutocorrelationZero: c.ACF.FirstZero, AutocorrelationDecay: c.ACF.DecayTime,
-		Theiler: embed.DefaultTheiler(c.ACF), Cautions: c.Cautions}
-	if res.Cautions == nil {
-		res.Cautions = []string{}
-	}
-	for k := range c.MI.Nats {
-		res.MutualInformation = append(res.MutualInformation, miPoint{Lag: k, Bits: c.MI.Bits(k), ErrorBits: c.MI.Err[k] / ln2})
-		res.Autocorrelation = append(res.Autocorrelation, acfPoint{Lag: k, R: c.ACF.R[k]})
-	}
-	p := lagParams{prepParams: newPrepParams(s, &o.in), Estimator: c.MI.Estimator, MaxLag: c.MaxLag,
-		Points: c.MI.Points, Z: c.Z, Threads: a.threads()}
-	if c.MI.Estimator == embed.KSG {
-		p.K, p.Theiler = c.MI.K, c.MI.Theiler
-	} else {
-		p.Bins = c.MI.Bins
-	}
-	return c, p, res, nil
+func (o *lagOptions) options() analysis.LagOptions {
+	return analysis.LagOptions{MaxLag: o.maxLag, MI: o.mi, Bins: o.bins, K: o.k, Points: o.points, Z: o.z}
 }
 
 func (a *app) runLag(path string, o *lagOptions) error {
 	if err := checkFigurePath(o.plot); err != nil {
 		return err
 	}
-	if _, err := a.lagOptionsFrom(o); err != nil {
+	if _, err := a.env(&o.in).EmbedLagOptions(o.options()); err != nil {
 		return err
 	}
 	s, in, err := a.loadInput(path, &o.in)
 	if err != nil {
 		return err
 	}
-	c, p, res, err := a.lagCompute(path, s, o)
+	c, p, res, err := a.env(&o.in).Lag(path, s, o.options())
 	if err != nil {
 		return err
 	}
@@ -245,63 +157,4 @@ func (a *app) runLag(path string, o *lagOptions) error {
 		fmt.Fprintf(a.stdout, "caution: %s\n", w)
 	}
 	return nil
-}
-
-const ln2 = 0.6931471805599453
-
-func fmtG(v float64) string { return strconv.FormatFloat(v, 'g', 6, 64) }
-
-// figureOf describes the record for the figure titles and axis labels.
-func figureOf(path string, s *series.Series) embed.Figure {
-	title := filepath.Base(path)
-	if path == "-" {
-		title = "standard input"
-	}
-	return embed.Figure{Title: title, Signal: s.Name, Unit: s.Unit, Dt: s.Dt, TimeUnit: "time units"}
-}
-
-// checkFigurePath accepts "" or a name ending in .png or .svg.
-func checkFigurePath(p string) error {
-	if p == "" {
-		return nil
-	}
-	switch strings.ToLower(filepath.Ext(p)) {
-	case ".png", ".svg":
-		return nil
-	}
-	return usagef("figure %s: the name must end in .png or .svg", p)
-}
-
-// writeFigureFile draws rows into path (format from the extension) through an atomic file.
-func writeFigureFile(path, input string, w, h vg.Length, rows [][]*plot.Plot) error {
-	var buf bytes.Buffer
-	if err := embed.WriteFigure(&buf, strings.TrimPrefix(strings.ToLower(filepath.Ext(path)), "."), w, h, rows); err != nil {
-		return err
-	}
-	return writeBytesFile(path, input, buf.Bytes())
-}
-
-func writeBytesFile(path, input string, b []byte) error {
-	f, err := series.CreateAtomic(path, input)
-	if err != nil {
-		return err
-	}
-	defer f.Abort()
-	if _, err := f.Write(b); err != nil {
-		return fmt.Errorf("writing %s: %w", path, err)
-	}
-	return f.Commit()
-}
-
-// writeCSVFile writes columns with a header through an atomic file.
-func writeCSVFile(path, input string, header []string, cols ...[]float64) error {
-	f, err := series.CreateAtomic(path, input)
-	if err != nil {
-		return err
-	}
-	defer f.Abort()
-	if err := series.WriteCSV(f, header, cols...); err != nil {
-		return fmt.Errorf("writing %s: %w", path, err)
-	}
-	return f.Commit()
 }

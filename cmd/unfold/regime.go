@@ -2,18 +2,16 @@ package main
 
 import (
 	"fmt"
-	"image/color"
-	"slices"
 	"strconv"
 
 	"github.com/spf13/cobra"
 	"github.com/spf13/pflag"
-	"gonum.org/v1/plot"
-	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/vg"
 
-	"unfold/regime"
-	"unfold/series"
+	"unfold/analysis"
+	"unfold/embed"
+	"unfold/figure"
+	"unfold/report"
 )
 
 type regimeOptions struct {
@@ -81,114 +79,31 @@ samples after subsampling).`,
 
 // addRegimeFlags binds the flags of `regime` (besides the input flags) to o, with their defaults.
 func addRegimeFlags(f *pflag.FlagSet, o *regimeOptions) {
-	f.IntVar(&o.lag, "lag", 0, "delay in samples (default: chosen from the mutual information)")
-	f.IntVar(&o.dim, "dim", 0, "embedding dimension (default: chosen by false neighbours and Cao's E1)")
-	f.IntVar(&o.theiler, "theiler", 0, "Theiler window in samples (default: 1/e decay time of the autocorrelation)")
-	f.IntVar(&o.surrogates, "surrogates", 19, "number of IAAFT surrogates (19: one-sided 5 %; 39: two-sided 5 %)")
-	f.BoolVar(&o.noLyap, "no-lyapunov", false, "leave the Lyapunov exponent out of the evidence")
+	d := analysis.DefaultRegimeOptions()
+	f.IntVar(&o.lag, "lag", d.Lag, "delay in samples (default: chosen from the mutual information)")
+	f.IntVar(&o.dim, "dim", d.Dim, "embedding dimension (default: chosen by false neighbours and Cao's E1)")
+	f.IntVar(&o.theiler, "theiler", d.Theiler, "Theiler window in samples (default: 1/e decay time of the autocorrelation; 0 excludes only the point itself)")
+	f.IntVar(&o.surrogates, "surrogates", d.Surrogates, "number of IAAFT surrogates (19: one-sided 5 %; 39: two-sided 5 %)")
+	f.BoolVar(&o.noLyap, "no-lyapunov", d.NoLyapunov, "leave the Lyapunov exponent out of the evidence")
 	f.StringVar(&o.plot, "plot", "", "draw the evidence: the spectrum with its lines and the surrogate distributions (.png or .svg)")
 }
 
-type regimeParams struct {
-	Column     string `json:"column"`
-	Lag        int    `json:"lag"`
-	LagMethod  string `json:"lag_method"`
-	Dim        int    `json:"dim"`
-	DimMethod  string `json:"dim_method"`
-	Theiler    int    `json:"theiler"`
-	Surrogates int    `json:"surrogates"`
-	Subsample  int    `json:"zero_one_subsample"`
-	Seed       uint64 `json:"seed"`
-	// LyapunovFrom is set in the report when λ1 is the lyapunov stage's (not estimated here).
-	LyapunovFrom string `json:"lyapunov_from,omitempty"`
-}
-
-type regimeResult struct {
-	Regime     string                 `json:"regime"`
-	Confidence float64                `json:"confidence"`
-	Rule       string                 `json:"rule"`
-	Evidence   map[string]regime.Item `json:"evidence"`
-	Tests      []*regime.RankTest     `json:"surrogate_tests"`
-	Cautions   []string               `json:"cautions"`
-}
-
-// checkRegimeOptions validates the flags of `regime`.
-func checkRegimeOptions(o *regimeOptions) error {
-	if o.lag < 0 || o.dim < 0 || o.theiler < 0 || o.surrogates < 1 {
-		return usagef("regime: want --lag, --dim, --theiler ≥ 0 and --surrogates ≥ 1")
-	}
-	return nil
-}
-
-// regimeCompute gathers the evidence of s and decides the regime (choosing what o does not
-// give), and returns the analysis (for the renderers) with the JSON parameters and body of
-// `regime`; the command and the report both use it. lagMethod and dimMethod name the rules that
-// chose o.lag and o.dim when a caller chose them already (the report's earlier stages); ""
-// means given or chosen here. lyap, when not nil, is λ1 with its interval estimated by the
-// caller (the report's lyapunov stage), used instead of Analyze's own estimate and recorded
-// as "lyapunov_from": "lyapunov stage" in the parameters.
-func (a *app) regimeCompute(path string, s *series.Series, o *regimeOptions, lagMethod, dimMethod string, lyap *regime.Exponent) (*regime.Analysis, regimeParams, regimeResult, error) {
-	if err := checkRegimeOptions(o); err != nil {
-		return nil, regimeParams{}, regimeResult{}, err
-	}
-	if err := series.CheckVariable(s.Values); err != nil {
-		return nil, regimeParams{}, regimeResult{}, err
-	}
-	an, err := regime.Analyze(s.Values, s.Dt, regime.Options{Lag: o.lag, Dim: o.dim, Theiler: o.theiler,
-		Surrogates: o.surrogates, Seed: a.global.Seed, Lyapunov: lyap, NoLyapunov: o.noLyap, Threads: a.threads(),
-		Progress: a.progress("surrogate tests")})
-	if err != nil {
-		return nil, regimeParams{}, regimeResult{}, noAnswer(fmt.Errorf("regime: %s: %w", path, err))
-	}
-	ev, v := an.Evidence, an.Verdict
-	if lagMethod == "" {
-		lagMethod = an.LagMethod
-	}
-	if dimMethod == "" {
-		dimMethod = an.DimMethod
-	}
-	sub := 0
-	if ev.ZeroOne != nil {
-		sub = ev.ZeroOne.Subsample
-	}
-	p := regimeParams{Column: s.Name, Lag: ev.Lag, LagMethod: lagMethod, Dim: ev.Dim, DimMethod: dimMethod,
-		Theiler: ev.Theiler, Surrogates: o.surrogates, Subsample: sub, Seed: a.global.Seed}
-	if lyap != nil && !o.noLyap {
-		p.LyapunovFrom = "lyapunov stage"
-	}
-	res := regimeResult{Regime: v.Regime, Confidence: v.Confidence, Rule: v.Rule,
-		Evidence: v.Evidence, Tests: []*regime.RankTest{ev.Prediction, ev.Reversal}, Cautions: v.Cautions}
-	return an, p, res, nil
-}
-
-// evidenceRows are the rows of the evidence table: the item's name, then "points to (weight):
-// detail", sorted by name.
-func evidenceRows(v *regime.Verdict) [][2]string {
-	keys := make([]string, 0, len(v.Evidence))
-	for k := range v.Evidence {
-		keys = append(keys, k)
-	}
-	slices.Sort(keys)
-	rows := make([][2]string, 0, len(keys))
-	for _, k := range keys {
-		it := v.Evidence[k]
-		rows = append(rows, [2]string{k, fmt.Sprintf("%s (%g): %s", it.PointsTo, it.Weight, it.Detail)})
-	}
-	return rows
+func (o *regimeOptions) options() analysis.RegimeOptions {
+	return analysis.RegimeOptions{Lag: o.lag, Dim: o.dim, Theiler: o.theiler, Surrogates: o.surrogates, NoLyapunov: o.noLyap}
 }
 
 func (a *app) runRegime(path string, o *regimeOptions) error {
 	if err := checkFigurePath(o.plot); err != nil {
 		return err
 	}
-	if err := checkRegimeOptions(o); err != nil {
+	if err := analysis.CheckRegime(o.options()); err != nil {
 		return err
 	}
 	s, in, err := a.loadInput(path, &o.in)
 	if err != nil {
 		return err
 	}
-	an, p, res, err := a.regimeCompute(path, s, o, "", "", nil)
+	an, p, res, err := a.env(&o.in).Regime(path, s, o.options(), analysis.RegimeEvidence{})
 	if err != nil {
 		return err
 	}
@@ -199,11 +114,11 @@ func (a *app) runRegime(path string, o *regimeOptions) error {
 	if an.DimMethod != "given" {
 		a.notef("dimension %d chosen (%s)", ev.Dim, an.DimMethod)
 	}
-	if o.theiler == 0 {
+	if o.theiler == embed.TheilerAuto {
 		a.notef("Theiler window %d samples (autocorrelation 1/e decay time)", ev.Theiler)
 	}
 	if o.plot != "" {
-		rows, err := evidencePlots(an, figureName(path))
+		rows, err := figure.Evidence(an, figureName(path))
 		if err != nil {
 			return err
 		}
@@ -223,7 +138,7 @@ func (a *app) runRegime(path string, o *regimeOptions) error {
 		{"", ""},
 		{"evidence", "points to (weight): detail"},
 	}
-	for _, r := range evidenceRows(v) {
+	for _, r := range report.EvidenceRows(v) {
 		rows = append(rows, []string{"  " + r[0], r[1]})
 	}
 	if err := a.table(rows); err != nil {
@@ -233,84 +148,4 @@ func (a *app) runRegime(path string, o *regimeOptions) error {
 		fmt.Fprintf(a.stdout, "caution: %s\n", c)
 	}
 	return nil
-}
-
-// evidencePlots draws the spectrum with its significant lines and the two surrogate tests
-// (surrogate values as points, the data as a vertical line).
-func evidencePlots(an *regime.Analysis, name string) ([][]*plot.Plot, error) {
-	ev := an.Evidence
-	var row []*plot.Plot
-	if l := ev.Lines; l != nil {
-		p := plot.New()
-		p.Title.Text = fmt.Sprintf("%s: spectrum (%s) → %s", name, l.Kind, an.Verdict.Regime)
-		p.X.Label.Text = "frequency (cycles per time unit)"
-		p.Y.Label.Text = "power density (log)"
-		p.Y.Scale = plot.LogScale{}
-		p.Y.Tick.Marker = plot.LogTicks{Prec: 1}
-		var pts plotter.XYs
-		floor := 0.0
-		for k, pw := range l.Spectrum.Power {
-			if k > 0 && pw > 0 {
-				pts = append(pts, plotter.XY{X: l.Spectrum.Freq[k], Y: pw})
-				if floor == 0 || pw < floor {
-					floor = pw
-				}
-			}
-		}
-		if len(pts) > 1 {
-			ln, err := plotter.NewLine(pts)
-			if err != nil {
-				return nil, err
-			}
-			ln.Color = palette(0)
-			p.Add(ln)
-		}
-		var pk plotter.XYs
-		for _, q := range l.Peaks {
-			pk = append(pk, plotter.XY{X: q.Freq, Y: q.Power})
-		}
-		if len(pk) > 0 {
-			sc, err := plotter.NewScatter(pk)
-			if err != nil {
-				return nil, err
-			}
-			sc.Color = palette(1)
-			p.Add(sc)
-			p.Legend.Add("significant lines", sc)
-		}
-		p.Legend.Top = true // the spectrum falls to the right: keep the legend off the noise floor
-		row = append(row, p)
-	}
-	for _, t := range []*regime.RankTest{ev.Prediction, ev.Reversal} {
-		if t == nil {
-			continue
-		}
-		p := plot.New()
-		p.Title.Text = fmt.Sprintf("%s: p = %.3g", t.Name, t.P)
-		p.X.Label.Text = t.Name
-		p.Y.Label.Text = "surrogate number"
-		var pts plotter.XYs
-		for i, s := range t.Surrogates {
-			pts = append(pts, plotter.XY{X: s, Y: float64(i + 1)})
-		}
-		sc, err := plotter.NewScatter(pts)
-		if err != nil {
-			return nil, err
-		}
-		sc.Color = color.Gray{Y: 90}
-		p.Add(sc)
-		p.Legend.Add("IAAFT surrogates", sc)
-		d, err := plotter.NewLine(plotter.XYs{{X: t.Data, Y: 0}, {X: t.Data, Y: float64(len(t.Surrogates) + 1)}})
-		if err != nil {
-			return nil, err
-		}
-		d.Color, d.Width = palette(1), vg.Points(2)
-		p.Add(d)
-		p.Legend.Add("data", d)
-		p.Legend.Top = true
-		// head room above the surrogates so the legend covers no point
-		p.Y.Min, p.Y.Max = 0, float64(len(t.Surrogates))*1.3+2
-		row = append(row, p)
-	}
-	return [][]*plot.Plot{row}, nil
 }

@@ -6,6 +6,8 @@ import (
 	"path/filepath"
 	"reflect"
 	"testing"
+
+	"unfold/analysis"
 )
 
 // TestReportSymbolsEntropy: on the logistic map the report's symbols object is what `unfold
@@ -49,7 +51,7 @@ func TestReportSymbolsEntropy(t *testing.T) {
 		t.Fatalf("entropy: exit %d: %s", code, se)
 	}
 	want = decode(t, so)
-	want["input"].(map[string]any)["path"] = entropyStreamName
+	want["input"].(map[string]any)["path"] = analysis.EntropyStreamName
 	if got := m["entropy"]; !reflect.DeepEqual(got, want) {
 		t.Errorf("report's entropy object differs from `unfold entropy --json` on the stream:\n got %v\nwant %v", got, want)
 	}

@@ -2,7 +2,9 @@ package main
 
 import (
 	"bytes"
+	"context"
 	"encoding/csv"
+	"encoding/json"
 	"flag"
 	"fmt"
 	"math"
@@ -15,6 +17,9 @@ import (
 	"testing"
 
 	"golang.org/x/net/html"
+
+	"unfold/analysis"
+	"unfold/series"
 )
 
 var updateGolden = flag.Bool("update", false, "rewrite the golden files of the report tests")
@@ -263,9 +268,10 @@ func checkStageFigures(t *testing.T, page []byte, want map[string]string) {
 }
 
 // TestReportSameJSONAsCommands: the report's lag, dim, lyapunov and fractal objects are exactly
-// what `unfold lag --json`, `unfold dim --json`, … print for the same file, and its regime
-// object what `unfold regime --json` prints on the same embedding; a file name holding <script>
-// appears escaped on the page.
+// what `unfold lag --json`, `unfold dim --json`, … print for the same file; its regime works in
+// the same embedding with the lyapunov stage's λ1 and the fractal stage's D2; analysis.Run
+// called as a library on the same record gives every stage object of result.json; a file name
+// holding <script> appears escaped on the page.
 func TestReportSameJSONAsCommands(t *testing.T) {
 	dir := t.TempDir()
 	p, raw := writeTX(t, dir, 3000, 0.01)
@@ -293,26 +299,48 @@ func TestReportSameJSONAsCommands(t *testing.T) {
 			t.Errorf("report's %q object differs from `unfold %s --json`", c, c)
 		}
 	}
-	// regime on the embedding the report chose, with λ1 from its lyapunov stage: the same
-	// object as `unfold regime --json --lag L --dim M --theiler W` but for the parameters
-	// naming how the embedding and λ1 were chosen (λ1 of the record's first 20 000 samples
-	// with the lyapunov defaults is what regime estimates itself; this record is shorter)
+	// one embedding and one D2 (issue 19): regime works in the embedding the report chose (the
+	// Theiler window of dim, lyapunov and fractal) and takes λ1 from the lyapunov stage and D2
+	// from the fractal stage
 	rp, _ := lookup(m, "regime.parameters").(map[string]any)
-	if rp == nil || rp["lyapunov_from"] != "lyapunov stage" {
-		t.Fatalf("regime parameters %v: want lyapunov_from = lyapunov stage", rp)
+	if rp == nil || rp["lyapunov_from"] != "lyapunov stage" || rp["dimension_from"] != "fractal stage" {
+		t.Fatalf("regime parameters %v: want lyapunov_from = lyapunov stage, dimension_from = fractal stage", rp)
 	}
-	so, se, code := runCLI(t, "", "regime", "--json", "-q", "--threads", "2", "--lag", fmt.Sprint(rp["lag"]),
-		"--dim", fmt.Sprint(rp["dim"]), "--theiler", fmt.Sprint(rp["theiler"]), evil)
-	if code != 0 {
-		t.Fatalf("regime: exit %d: %s", code, se)
+	for _, c := range []string{"dim", "lyapunov", "fractal"} {
+		if w := lookup(m, c+".parameters.theiler"); w != rp["theiler"] {
+			t.Errorf("%s's Theiler window %v, regime's %v: want one window", c, w, rp["theiler"])
+		}
 	}
-	want := decode(t, so)
-	for _, k := range []string{"lag_method", "dim_method", "lyapunov_from"} {
-		delete(rp, k)
-		delete(want["parameters"].(map[string]any), k)
+	if d2, ev := lookup(m, "fractal.d2"), lookup(m, "regime.evidence.correlation_dimension.value"); d2 == nil || d2 != ev {
+		t.Errorf("regime's D2 evidence %v, fractal's D2 %v: want the same number", ev, d2)
 	}
-	if !reflect.DeepEqual(m["regime"], want) {
-		t.Errorf("report's regime object differs from `unfold regime --json` with its embedding")
+	if l1, ev := lookup(m, "lyapunov.lambda_max"), lookup(m, "regime.evidence.lyapunov.value"); l1 == nil || l1 != ev {
+		t.Errorf("regime's λ1 evidence %v, lyapunov's λ1 %v: want the same number", ev, l1)
+	}
+	// the library: analysis.Run on the record as read gives the same objects (issue 19)
+	rec, src, err := series.ReadFile(evil, nil, series.ReadOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	lib, err := analysis.Run(context.Background(), rec, analysis.Options{Threads: 2, Path: evil, Version: versionString(),
+		Input: &analysis.Input{Path: src.Path, SHA256: src.SHA256, Samples: rec.Len(), Dt: rec.Dt}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	lb, err := json.Marshal(lib)
+	if err != nil {
+		t.Fatal(err)
+	}
+	lm := decode(t, string(lb))
+	for _, k := range analysis.Keys {
+		if _, ok := m[k]; ok && !reflect.DeepEqual(m[k], lm[k]) {
+			a, _ := json.Marshal(m[k])
+			b, _ := json.Marshal(lm[k])
+			t.Errorf("analysis.Run's %q object differs from the report's:\n%s", k, lineDiff(string(a), string(b)))
+		}
+	}
+	if lib.Embedding == nil || lib.Embedding.Lag.Value != int(lookup(m, "lag.lag").(float64)) || lib.Embedding.Dim.Value != int(lookup(m, "dim.dimension").(float64)) {
+		t.Errorf("analysis.Run's embedding %+v differs from the report's lag and dimension", lib.Embedding)
 	}
 	page, err := os.ReadFile(filepath.Join(out, "report.html"))
 	if err != nil {

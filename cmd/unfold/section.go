@@ -2,17 +2,14 @@ package main
 
 import (
 	"fmt"
-	"image/color"
 	"strconv"
 
 	"github.com/spf13/cobra"
 	"gonum.org/v1/plot"
-	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/vg"
-	"gonum.org/v1/plot/vg/draw"
 
-	"unfold/partition"
-	"unfold/series"
+	"unfold/analysis"
+	"unfold/figure"
 )
 
 type sectionOptions struct {
@@ -55,123 +52,21 @@ first in-plane coordinate x(t+τ) (or the height of the maximum).`,
 	}
 	addInputFlags(cmd, &o.in)
 	f := cmd.Flags()
-	f.IntVar(&o.lag, "lag", 0, "delay τ of the embedding in samples (default: chosen from the mutual information)")
-	f.IntVar(&o.dim, "dim", 3, "embedding dimension m; a crossing has m−1 in-plane coordinates")
-	f.StringVar(&o.level, "level", "mean", "where the plane cuts the first delay coordinate, in signal units (default: the mean)")
-	f.StringVar(&o.direction, "direction", "up", "crossing direction: up, down or both")
-	f.StringVar(&o.interp, "interp", "linear", "interpolation between samples: linear or cubic")
-	f.BoolVar(&o.maxima, "maxima", false, "use the local maxima of the signal instead of a hyperplane")
+	d := analysis.DefaultSectionOptions()
+	f.IntVar(&o.lag, "lag", d.Lag, "delay τ of the embedding in samples (default: chosen from the mutual information)")
+	f.IntVar(&o.dim, "dim", d.Dim, "embedding dimension m; a crossing has m−1 in-plane coordinates")
+	f.StringVar(&o.level, "level", d.Level, "where the plane cuts the first delay coordinate, in signal units (default: the mean)")
+	f.StringVar(&o.direction, "direction", d.Direction, "crossing direction: up, down or both")
+	f.StringVar(&o.interp, "interp", d.Interp, "interpolation between samples: linear or cubic")
+	f.BoolVar(&o.maxima, "maxima", d.Maxima, "use the local maxima of the signal instead of a hyperplane")
 	f.StringVarP(&o.output, "output", "o", "", "write the crossings (CSV: t, then the coordinates)")
 	f.StringVar(&o.plot, "plot", "", "draw the return map x_{n+1} vs x_n (.png or .svg)")
 	return cmd
 }
 
-type sectionParams struct {
-	Column    string  `json:"column"`
-	Method    string  `json:"method"`
-	Lag       int     `json:"lag,omitempty"`
-	LagMethod string  `json:"lag_method,omitempty"`
-	Dim       int     `json:"dim,omitempty"`
-	Level     float64 `json:"level"`
-	LevelFrom string  `json:"level_from"`
-	Direction string  `json:"direction"`
-	Interp    string  `json:"interp"`
-}
-
-type sectionResult struct {
-	Crossings   int      `json:"crossings"`
-	Rate        float64  `json:"rate_per_time_unit"`
-	MeanReturn  float64  `json:"mean_return_time"`
-	Duration    float64  `json:"duration"`
-	ValueColumn string   `json:"value"`
-	Output      string   `json:"output"`
-	Plot        string   `json:"plot"`
-	Cautions    []string `json:"cautions"`
-}
-
-// sectionOpts turns the flags into partition.SectionOptions, choosing the lag if needed.
-func (a *app) sectionOpts(x []float64, lag, dim int, level, direction, interp string, maxima bool) (partition.SectionOptions, string, string, []string, error) {
-	opt := partition.SectionOptions{Maxima: maxima, Dim: dim}
-	var cautions []string
-	switch direction {
-	case "up", "":
-		opt.Direction = 1
-	case "down":
-		opt.Direction = -1
-	case "both":
-		opt.Direction = 0
-	default:
-		return opt, "", "", nil, usagef("--direction %q: want up, down or both", direction)
-	}
-	m, err := partition.ParseInterp(interp)
-	if err != nil {
-		return opt, "", "", nil, usagef("--interp: %v", err)
-	}
-	opt.Interp = m
-	levelFrom := "mean"
-	if level != "mean" && level != "" {
-		v, err := strconv.ParseFloat(level, 64)
-		if err != nil {
-			return opt, "", "", nil, usagef("--level %q: want a number or mean", level)
-		}
-		opt.Level, opt.LevelSet, levelFrom = v, true, "given"
-	}
-	if dim < 1 || lag < 0 {
-		return opt, "", "", nil, usagef("--dim must be ≥ 1 and --lag ≥ 0")
-	}
-	lagMethod := "given"
-	if !maxima {
-		if lag == 0 {
-			l, lm, _, _, cs, err := a.embeddingDefaults(x, 0, 0)
-			if err != nil {
-				return opt, "", "", nil, noAnswer(fmt.Errorf("choosing the lag: %w", err))
-			}
-			lag, lagMethod, cautions = l, lm, cs
-		}
-		opt.Lag = lag
-	}
-	return opt, lagMethod, levelFrom, cautions, nil
-}
-
-// sectionRun is what sectionCompute found, for the command's files and figure.
-type sectionRun struct {
-	sec       *partition.Section
-	header    []string // CSV header of the crossings
-	valueName string   // the value the return map is drawn of
-	lagMethod string
-	levelFrom string
-}
-
-// sectionCompute takes the section of s as `section` does and returns it with the JSON
-// parameters and body of `section` (the body names o.output and o.plot; the caller writes
-// them).
-func (a *app) sectionCompute(path string, s *series.Series, o *sectionOptions) (*sectionRun, sectionParams, sectionResult, error) {
-	if err := series.CheckVariable(s.Values); err != nil {
-		return nil, sectionParams{}, sectionResult{}, err
-	}
-	opt, lagMethod, levelFrom, cautions, err := a.sectionOpts(s.Values, o.lag, o.dim, o.level, o.direction, o.interp, o.maxima)
-	if err != nil {
-		return nil, sectionParams{}, sectionResult{}, err
-	}
-	sec, err := partition.TakeSection(s.Values, s.Dt, s.T0, opt)
-	if err != nil {
-		return nil, sectionParams{}, sectionResult{}, noAnswer(fmt.Errorf("section: %s: %w", path, err))
-	}
-	cautions = append(cautions, sec.Cautions...)
-	header, valueName := sectionColumns(sec, s.Name)
-	if cautions == nil {
-		cautions = []string{}
-	}
-	res := sectionResult{Crossings: sec.Len(), Rate: sec.Rate, MeanReturn: sec.MeanReturn, Duration: sec.Duration,
-		ValueColumn: valueName, Output: o.output, Plot: o.plot, Cautions: cautions}
-	dir := map[int]string{1: "up", -1: "down", 0: "both"}[opt.Direction]
-	p := sectionParams{Column: s.Name, Method: sec.Method, Level: sec.Level, LevelFrom: levelFrom, Direction: dir, Interp: sec.Interp}
-	if sec.Method == "hyperplane" {
-		p.Lag, p.LagMethod, p.Dim = sec.Lag, lagMethod, sec.Dim
-	} else {
-		p.LevelFrom, p.Direction = "", ""
-	}
-	return &sectionRun{sec: sec, header: header, valueName: valueName, lagMethod: lagMethod, levelFrom: levelFrom}, p, res, nil
+func (o *sectionOptions) options() analysis.SectionOptions {
+	return analysis.SectionOptions{Lag: o.lag, Dim: o.dim, Level: o.level, Direction: o.direction, Interp: o.interp,
+		Maxima: o.maxima, Output: o.output, Plot: o.plot}
 }
 
 func (a *app) runSection(path string, o *sectionOptions) error {
@@ -182,11 +77,11 @@ func (a *app) runSection(path string, o *sectionOptions) error {
 	if err != nil {
 		return err
 	}
-	run, p, res, err := a.sectionCompute(path, s, o)
+	run, p, res, err := a.env(&o.in).Section(path, s, o.options())
 	if err != nil {
 		return err
 	}
-	sec := run.sec
+	sec := run.Sec
 	if o.output != "" {
 		cols := [][]float64{sec.Times}
 		for c := 0; c < sec.Width; c++ {
@@ -196,12 +91,12 @@ func (a *app) runSection(path string, o *sectionOptions) error {
 			}
 			cols = append(cols, col)
 		}
-		if err := writeCSVFile(o.output, path, run.header, cols...); err != nil {
+		if err := writeCSVFile(o.output, path, run.Header, cols...); err != nil {
 			return err
 		}
 	}
 	if o.plot != "" {
-		p, err := returnMapPlot(sec.Values(), run.valueName, figureOf(path, s).Title)
+		p, err := figure.ReturnMap(sec.Values(), run.ValueName, figureOf(path, s).Title)
 		if err != nil {
 			return err
 		}
@@ -216,7 +111,7 @@ func (a *app) runSection(path string, o *sectionOptions) error {
 	how := fmt.Sprintf("local maxima of %s (parabola refinement)", s.Name)
 	if sec.Method == "hyperplane" {
 		how = fmt.Sprintf("plane %s = %s (%s), lag %d (%s), dimension %d, direction %s, %s interpolation",
-			s.Name, g(sec.Level), run.levelFrom, sec.Lag, run.lagMethod, sec.Dim, o.direction, sec.Interp)
+			s.Name, g(sec.Level), run.LevelFrom, sec.Lag, run.LagMethod, sec.Dim, o.direction, sec.Interp)
 	}
 	rows := [][]string{
 		{"file", path},
@@ -238,59 +133,4 @@ func (a *app) runSection(path string, o *sectionOptions) error {
 		fmt.Fprintf(a.stdout, "caution: %s\n", c)
 	}
 	return nil
-}
-
-// sectionColumns returns the CSV header of the crossings of sec taken from the signal called
-// name (t, then the in-plane coordinates or the height of the maximum) and the name of the
-// value the return map is drawn of.
-func sectionColumns(sec *partition.Section, name string) ([]string, string) {
-	header := []string{"t"}
-	valueName := "max_" + name
-	if sec.Method == "hyperplane" {
-		if sec.Dim == 1 {
-			header = append(header, name)
-			valueName = name
-		} else {
-			for k := 1; k < sec.Dim; k++ {
-				if k == 1 {
-					header = append(header, name+"(t+τ)")
-				} else {
-					header = append(header, fmt.Sprintf("%s(t+%dτ)", name, k))
-				}
-			}
-			valueName = header[1]
-		}
-	} else {
-		header = append(header, valueName)
-	}
-	return header, valueName
-}
-
-// returnMapPlot draws v[n+1] against v[n] with the diagonal.
-func returnMapPlot(v []float64, name, title string) (*plot.Plot, error) {
-	p := plot.New()
-	p.Title.Text = "Return map — " + title
-	p.X.Label.Text = name + " (n)"
-	p.Y.Label.Text = name + " (n+1)"
-	pts := make(plotter.XYs, 0, max(len(v)-1, 0))
-	lo, hi := v[0], v[0]
-	for i := 0; i+1 < len(v); i++ {
-		pts = append(pts, plotter.XY{X: v[i], Y: v[i+1]})
-		lo, hi = min(lo, v[i]), max(hi, v[i])
-	}
-	sc, err := plotter.NewScatter(pts)
-	if err != nil {
-		return nil, fmt.Errorf("return map: %w", err)
-	}
-	sc.GlyphStyle.Shape = draw.CircleGlyph{}
-	sc.GlyphStyle.Radius = vg.Points(1.2)
-	sc.GlyphStyle.Color = color.RGBA{R: 0x1f, G: 0x5f, B: 0xa8, A: 0xff}
-	diag, err := plotter.NewLine(plotter.XYs{{X: lo, Y: lo}, {X: hi, Y: hi}})
-	if err != nil {
-		return nil, fmt.Errorf("return map: %w", err)
-	}
-	diag.Color = color.RGBA{R: 0x80, G: 0x80, B: 0x80, A: 0xff}
-	diag.Dashes = []vg.Length{vg.Points(3), vg.Points(3)}
-	p.Add(diag, sc)
-	return p, nil
 }

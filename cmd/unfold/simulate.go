@@ -2,10 +2,6 @@ package main
 
 import (
 	"errors"
-	"fmt"
-	"math"
-	"sort"
-	"strconv"
 	"strings"
 
 	"github.com/spf13/cobra"
@@ -76,117 +72,6 @@ func newSimulateCmd(a *app) *cobra.Command {
 	}
 	bindSimulateSweep(a, cmd)
 	return cmd
-}
-
-type paramFlag struct {
-	name  string
-	list  bool
-	usage string
-}
-
-// paramFlags returns one flag per parameter name used by any model, with a usage line that
-// says which models use it and their defaults.
-func paramFlags() []paramFlag {
-	type use struct {
-		model string
-		p     models.Param
-	}
-	uses := map[string][]use{}
-	for _, s := range models.Catalog() {
-		for _, p := range s.Params {
-			uses[p.Name] = append(uses[p.Name], use{s.Name, p})
-		}
-	}
-	names := make([]string, 0, len(uses))
-	for n := range uses {
-		names = append(names, n)
-	}
-	sort.Strings(names)
-	out := make([]paramFlag, 0, len(names))
-	for _, n := range names {
-		var parts []string
-		list := false
-		for _, u := range uses[n] {
-			list = list || u.p.List
-			parts = append(parts, fmt.Sprintf("%s %s, %s (default %s)", u.model, u.p.Symbol, u.p.Doc, formatValues(u.p.Default)))
-		}
-		out = append(out, paramFlag{name: n, list: list, usage: "model parameter: " + strings.Join(parts, "; ")})
-	}
-	return out
-}
-
-func formatValues(v []float64) string {
-	s := make([]string, len(v))
-	for i, x := range v {
-		s[i] = strconv.FormatFloat(x, 'g', 6, 64)
-	}
-	return strings.Join(s, ",")
-}
-
-// simulateLong is the long help: the models with their equations and parameters.
-func simulateLong() string {
-	var b strings.Builder
-	b.WriteString(`simulate writes a signal from a published model system as CSV with a header: a time column t
-and the recorded state variables (t,x[,y,z]). Flows are integrated by fixed-step fourth-order
-Runge–Kutta with a step finer than the output interval (dt/substeps); the transient is dropped and
-time is counted from the first recorded sample. --noise adds Gaussian measurement noise as a
-fraction of each column's standard deviation; --seed makes every random step reproducible.
-Every model parameter is a flag; parameters a model does not have are refused.
-
---lyapunov computes the Lyapunov spectrum from the equations instead, by the QR method of
-Benettin, Galgani, Giorgilli & Strelcyn (1980, Meccanica 15, 9): tangent vectors carried along the
-orbit by the variational equations and re-orthonormalised every dt; exponents in nats per time
-unit (per iteration for maps), with the Kaplan–Yorke dimension (Kaplan & Yorke 1979).
-
-Models (defaults in brackets; dt, transient and spectrum length are per model):
-`)
-	for _, s := range models.Catalog() {
-		fmt.Fprintf(&b, "\n  %s — %s (%s)\n      %s\n", s.Name, s.Title, s.Kind, s.Equations)
-		var ps []string
-		for _, p := range s.Params {
-			ps = append(ps, fmt.Sprintf("--%s %s", p.Name, formatValues(p.Default)))
-		}
-		if len(ps) > 0 {
-			fmt.Fprintf(&b, "      [%s]", strings.Join(ps, " "))
-		}
-		fmt.Fprintf(&b, "  dt %g, transient %g", s.Dt, s.Transient)
-		if s.Kind != models.KindProcess {
-			fmt.Fprintf(&b, ", init %s", formatValues(s.Initial))
-		}
-		fmt.Fprintf(&b, "\n      %s\n", s.Reference)
-	}
-	return b.String()
-}
-
-// simulateParams is the "parameters" object of the JSON output.
-type simulateParams struct {
-	Model       string         `json:"model"`
-	Kind        string         `json:"kind"`
-	ModelParams map[string]any `json:"model_parameters"`
-	N           int            `json:"n"`
-	Dt          float64        `json:"dt"`
-	Substeps    int            `json:"substeps,omitempty"`
-	Step        float64        `json:"integration_step,omitempty"`
-	Transient   float64        `json:"transient"`
-	Initial     []float64      `json:"initial,omitempty"`
-	Noise       float64        `json:"noise"`
-	Seed        uint64         `json:"seed"`
-	Method      string         `json:"method,omitempty"`
-}
-
-type simulateResult struct {
-	Spectrum    []float64 `json:"spectrum"`
-	Units       string    `json:"units"`
-	Sum         float64   `json:"sum"`
-	KaplanYorke float64   `json:"kaplan_yorke_dimension"`
-	Time        float64   `json:"time"`
-	Intervals   int       `json:"intervals"`
-}
-
-type simulateWritten struct {
-	Output  string   `json:"output"`
-	Samples int      `json:"samples"`
-	Columns []string `json:"columns"`
 }
 
 func (a *app) runSimulate(flags *pflag.FlagSet, name string, o *simulateOptions) error {
@@ -304,64 +189,5 @@ func (a *app) runSimulate(flags *pflag.FlagSet, name string, o *simulateOptions)
 		return a.emitJSON("simulate", nil, params, simulateWritten{Output: o.output, Samples: tr.Len(), Columns: header})
 	}
 	a.notef("simulate: wrote %d samples of %s (%s) to %s", tr.Len(), spec.Name, strings.Join(header, ","), o.output)
-	return nil
-}
-
-func writeAtomicCSV(path string, header []string, cols [][]float64) error {
-	f, err := series.CreateAtomic(path)
-	if err != nil {
-		return err
-	}
-	defer f.Abort()
-	if err := series.WriteCSV(f, header, cols...); err != nil {
-		return fmt.Errorf("simulate: %s: %w", path, err)
-	}
-	return f.Commit()
-}
-
-func (a *app) printSpectrum(spec models.Spec, values models.Values, sp *models.Spectrum, units string, sum float64) error {
-	g := func(v float64) string { return strconv.FormatFloat(v, 'g', 6, 64) }
-	var ps []string
-	for _, p := range spec.Params {
-		ps = append(ps, p.Symbol+" = "+formatValues(values[p.Name]))
-	}
-	rows := [][]string{
-		{"model", spec.Name + " (" + strings.Join(ps, ", ") + ")"},
-		{"method", "Benettin et al. (1980) QR on the variational equations"},
-	}
-	if sp.Step > 0 {
-		rows = append(rows, []string{"averaged over", fmt.Sprintf("T = %s time units (%d intervals, RK4 step %s)", g(sp.Time), sp.Intervals, g(sp.Step))})
-	} else {
-		rows = append(rows, []string{"averaged over", fmt.Sprintf("%d iterations", sp.Intervals)})
-	}
-	for i, l := range sp.Exponents {
-		rows = append(rows, []string{fmt.Sprintf("λ%d", i+1), fmt.Sprintf("%10.6f %s  (%.6f bits)", l, units, l/math.Ln2)})
-	}
-	rows = append(rows,
-		[]string{"sum", fmt.Sprintf("%10.6f", sum)},
-		[]string{"Kaplan–Yorke dimension", fmt.Sprintf("%.5f", sp.KaplanYorke)})
-	return a.table(rows)
-}
-
-// floatList is a flag value holding comma-separated numbers; it prints nothing as its default,
-// so the usage line carries the per-model defaults.
-type floatList []float64
-
-func (l *floatList) String() string { return formatValues(*l) }
-
-// Type names the value in the usage text.
-func (l *floatList) Type() string { return "floats" }
-
-// Set parses a comma-separated list of numbers; the flag given again replaces the list.
-func (l *floatList) Set(s string) error {
-	var v []float64
-	for _, f := range strings.Split(s, ",") {
-		x, err := strconv.ParseFloat(strings.TrimSpace(f), 64)
-		if err != nil || math.IsNaN(x) || math.IsInf(x, 0) {
-			return fmt.Errorf("%q is not a finite number", f)
-		}
-		v = append(v, x)
-	}
-	*l = v
 	return nil
 }

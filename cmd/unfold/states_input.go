@@ -1,6 +1,8 @@
 package main
 
 import (
+	"unfold/analysis"
+
 	"crypto/sha256"
 	"encoding/hex"
 	"errors"
@@ -37,20 +39,20 @@ func (a *app) loadStatesStream(cmd *cobra.Command, path string, so *symbolsOptio
 			return nil, err
 		}
 	}
-	if err := checkSymbolsOptions(so, cmd.Flags().Changed("alphabet")); err != nil {
+	if err := analysis.CheckSymbols(so.options(), cmd.Flags().Changed("alphabet")); err != nil {
 		return nil, err
 	}
 	s, in, err := a.loadInput(path, &so.in)
 	if err != nil {
 		return nil, err
 	}
-	run, _, err := a.symbolsCompute(path, s, so, "")
+	run, _, err := a.env(&so.in).Symbols(path, s, so.options(), "")
 	if err != nil {
 		return nil, err
 	}
-	p := run.part
-	st := &statesStream{symbols: p.Apply(run.values, nil), k: p.K(), alphabet: run.alphabet, in: in, origin: "signal",
-		part: symbolic.PartitionInfo{Kind: p.Kind, Thresholds: p.Thresholds, Score: p.Score, AppliedTo: run.applied}, notes: noteList(run)}
+	p := run.Part
+	st := &statesStream{symbols: p.Apply(run.Values, nil), k: p.K(), alphabet: run.Alphabet, in: in, origin: "signal",
+		part: symbolic.PartitionInfo{Kind: p.Kind, Thresholds: p.Thresholds, Score: p.Score, AppliedTo: run.Applied}, notes: noteList(run)}
 	st.in.Samples = len(st.symbols)
 	return st, nil
 }

@@ -126,3 +126,11 @@ func (a *app) renderSweep(list *report.SweepList, rows []report.SweepRow, tr []s
 	_, err := fmt.Fprintf(a.stdout, "page: %s\n", htmlPath)
 	return err
 }
+
+// finite is v, or nil (null in JSON) when v is not a finite number.
+func finite(v float64) *float64 {
+	if math.IsNaN(v) || math.IsInf(v, 0) {
+		return nil
+	}
+	return &v
+}

@@ -2,15 +2,14 @@ package main
 
 import (
 	"fmt"
-	"io"
-	"math"
 	"strconv"
 	"strings"
 
 	"github.com/spf13/cobra"
 	"github.com/spf13/pflag"
 
-	"unfold/partition"
+	"unfold/analysis"
+	"unfold/report"
 	"unfold/series"
 	"unfold/symbolic"
 )
@@ -73,54 +72,25 @@ The file is written to a temporary name and renamed, and never over the input.`,
 
 // addSymbolsFlags binds the flags of symbols (the report takes their defaults from here).
 func addSymbolsFlags(f *pflag.FlagSet, o *symbolsOptions) {
+	d := analysis.DefaultSymbolsOptions()
 	f.StringVarP(&o.output, "output", "o", "", "symbol stream to write (its sidecar is OUT.json beside it)")
-	f.StringVar(&o.kind, "partition", "search", "partition: search, critical, quantile or threshold")
-	f.IntVar(&o.alphabet, "alphabet", 2, "alphabet size K (search and quantile)")
-	f.Float64SliceVar(&o.thresholds, "thresholds", nil, "cut values for --partition threshold, comma separated")
-	f.BoolVar(&o.flow, "flow", false, "treat the record as a sampled flow (partition its section)")
-	f.BoolVar(&o.mapR, "map", false, "treat the record as a map (partition the samples)")
-	f.IntVar(&o.lag, "lag", 0, "lag in samples for the map/flow decision and the section (default: chosen from the mutual information)")
-	f.BoolVar(&o.maxima, "maxima", false, "flows: use the local maxima of the signal as the section")
-	f.StringVar(&o.level, "level", "mean", "flows: where the section plane cuts the first delay coordinate")
-	f.StringVar(&o.direction, "direction", "up", "flows: section crossing direction: up, down or both")
-	f.StringVar(&o.interp, "interp", "linear", "flows: interpolation between samples: linear or cubic")
+	f.StringVar(&o.kind, "partition", d.Kind, "partition: search, critical, quantile or threshold")
+	f.IntVar(&o.alphabet, "alphabet", d.Alphabet, "alphabet size K (search and quantile)")
+	f.Float64SliceVar(&o.thresholds, "thresholds", d.Thresholds, "cut values for --partition threshold, comma separated")
+	f.BoolVar(&o.flow, "flow", d.Flow, "treat the record as a sampled flow (partition its section)")
+	f.BoolVar(&o.mapR, "map", d.Map, "treat the record as a map (partition the samples)")
+	f.IntVar(&o.lag, "lag", d.Lag, "lag in samples for the map/flow decision and the section (default: chosen from the mutual information)")
+	f.BoolVar(&o.maxima, "maxima", d.Maxima, "flows: use the local maxima of the signal as the section")
+	f.StringVar(&o.level, "level", d.Level, "flows: where the section plane cuts the first delay coordinate")
+	f.StringVar(&o.direction, "direction", d.Direction, "flows: section crossing direction: up, down or both")
+	f.StringVar(&o.interp, "interp", d.Interp, "flows: interpolation between samples: linear or cubic")
 }
 
-type symbolsParams struct {
-	Column     string           `json:"column"`
-	Partition  string           `json:"partition"`
-	Alphabet   int              `json:"alphabet"`
-	Record     partition.Record `json:"record"`
-	RecordFrom string           `json:"record_from"`
-	Section    *sectionParams   `json:"section,omitempty"`
-}
+type symbolsRun = analysis.SymbolsRun
 
-type partitionJSON struct {
-	Kind        string    `json:"kind"`
-	Thresholds  []float64 `json:"thresholds"`
-	Score       *float64  `json:"score"`
-	Criterion   string    `json:"criterion"`
-	EntropyRate *float64  `json:"entropy_rate"`
-	AppliedTo   string    `json:"applied_to"`
-	Rule        string    `json:"rule,omitempty"`
-}
-
-type symbolsResult struct {
-	Partition    partitionJSON `json:"partition"`
-	AlphabetSize int           `json:"alphabet_size"`
-	Alphabet     string        `json:"alphabet"`
-	Count        int64         `json:"count"`
-	Counts       []int64       `json:"counts"`
-	Output       string        `json:"output"`
-	Sidecar      string        `json:"sidecar"`
-	Cautions     []string      `json:"cautions"`
-}
-
-func finite(v float64) *float64 {
-	if math.IsNaN(v) || math.IsInf(v, 0) {
-		return nil
-	}
-	return &v
+func (o *symbolsOptions) options() analysis.SymbolsOptions {
+	return analysis.SymbolsOptions{Output: o.output, Kind: o.kind, Alphabet: o.alphabet, Thresholds: o.thresholds,
+		Flow: o.flow, Map: o.mapR, Lag: o.lag, Maxima: o.maxima, Level: o.level, Direction: o.direction, Interp: o.interp}
 }
 
 // commandLine rebuilds the command as given: the command path, every flag set and the arguments.
@@ -133,199 +103,18 @@ func commandLine(cmd *cobra.Command, args []string) string {
 	return strings.Join(parts, " ")
 }
 
-// checkSymbolsOptions validates the flags of symbols before any work; alphabetGiven says
-// whether --alphabet was set.
-func checkSymbolsOptions(o *symbolsOptions, alphabetGiven bool) error {
-	if o.flow && o.mapR {
-		return usagef("symbols: --flow and --map exclude each other")
-	}
-	switch o.kind {
-	case "search", "critical", "quantile", "threshold":
-	default:
-		return usagef("symbols: --partition %q: want search, critical, quantile or threshold", o.kind)
-	}
-	if o.kind == "threshold" && len(o.thresholds) == 0 {
-		return usagef("symbols: --partition threshold needs --thresholds")
-	}
-	if o.alphabet < 2 || o.alphabet > symbolic.MaxAlphabet {
-		return usagef("symbols: --alphabet %d: want 2 to %d", o.alphabet, symbolic.MaxAlphabet)
-	}
-	if o.kind == "critical" && alphabetGiven && o.alphabet != 2 {
-		return usagef("symbols: the critical-point partition is binary; --alphabet must be 2")
-	}
-	return nil
-}
-
-// symbolsRun is what symbolsCompute found: the values that were partitioned (the samples of a
-// map-like record or the section of a flow-like one), the partition and the notes the command
-// prints on stderr.
-type symbolsRun struct {
-	values    []float64 // what the partition is applied to
-	valueName string    // its name for axis labels: x, x(t+τ) or max_x
-	part      *partition.Partition
-	alphabet  string
-	rule      string
-	rec       partition.Record
-	recFrom   string
-	applied   string // "signal" or "section"
-	cautions  []string
-	notes     []string
-}
-
-// symbolsCompute decides map or flow, takes the section of a flow and chooses the partition,
-// as `symbols` does; lagFrom names where a given o.lag came from ("" = given with --lag). The
-// stream itself is written by writeSymbols. The command and the report both use it.
-func (a *app) symbolsCompute(path string, s *series.Series, o *symbolsOptions, lagFrom string) (*symbolsRun, symbolsParams, error) {
-	if err := series.CheckVariable(s.Values); err != nil {
-		return nil, symbolsParams{}, err
-	}
-	run := &symbolsRun{}
-	lag, lagMethod := o.lag, "given"
-	if lag > 0 && lagFrom != "" {
-		lagMethod = lagFrom
-	}
-	if lag <= 0 && !o.mapR {
-		l, lm, _, _, cs, err := a.embeddingDefaults(s.Values, 0, 0)
-		if err != nil {
-			return run, symbolsParams{}, noAnswer(fmt.Errorf("symbols: %s: choosing the lag: %w", path, err))
-		}
-		lag, lagMethod = l, lm
-		run.cautions = append(run.cautions, cs...)
-	}
-	rec := partition.DecideRecord(s.Values, max(lag, 1))
-	recFrom := "data"
-	switch {
-	case o.flow:
-		rec.Kind, recFrom = "flow", "given (--flow)"
-	case o.mapR:
-		rec.Kind, recFrom = "map", "given (--map)"
-	default:
-		run.notes = append(run.notes, rec.Reason)
-	}
-	values := s.Values
-	applied, valueName := "signal", s.Name
-	var secP *sectionParams
-	if rec.Kind == "flow" {
-		opt, lm, levelFrom, cs, err := a.sectionOpts(s.Values, max(lag, 1), 2, o.level, o.direction, o.interp, o.maxima)
-		if err != nil {
-			return run, symbolsParams{}, err
-		}
-		if lm == "given" && (o.lag <= 0 || lagFrom != "") {
-			lm = lagMethod
-		}
-		run.cautions = append(run.cautions, cs...)
-		sec, err := partition.TakeSection(s.Values, s.Dt, s.T0, opt)
-		if err != nil {
-			return run, symbolsParams{}, noAnswer(fmt.Errorf("symbols: %s: %w", path, err))
-		}
-		run.cautions = append(run.cautions, sec.Cautions...)
-		values, applied = sec.Values(), "section"
-		_, valueName = sectionColumns(sec, s.Name)
-		secP = &sectionParams{Method: sec.Method, Level: sec.Level, LevelFrom: levelFrom, Direction: o.direction, Interp: sec.Interp}
-		if sec.Method == "hyperplane" {
-			secP.Lag, secP.LagMethod, secP.Dim = sec.Lag, lm, sec.Dim
-		}
-		run.notes = append(run.notes, fmt.Sprintf("section: %d crossings (%s)", sec.Len(), sec.Method))
-	}
-	sopt := partition.SearchOptions{Alphabet: o.alphabet, Threads: a.threads()}
-	var p *partition.Partition
-	var err error
-	switch o.kind {
-	case "search":
-		r, err := partition.Search(values, sopt)
-		if err != nil {
-			return run, symbolsParams{}, noAnswer(fmt.Errorf("symbols: %s: %w", path, err))
-		}
-		p, run.rule = &r.Partition, r.Rule
-		run.cautions = append(run.cautions, r.Cautions...)
-	case "critical":
-		c, err := partition.CriticalPoint(values, partition.CriticalOptions{})
-		if err != nil {
-			return run, symbolsParams{}, noAnswer(fmt.Errorf("symbols: %s: %w", path, err))
-		}
-		p = &c.Partition
-		run.rule = fmt.Sprintf("cut at the %s of the return map fitted by local quadratic regression (kernel half-width %.4g)", c.Extremum, c.Bandwidth)
-	case "quantile":
-		p, err = partition.Quantile(values, o.alphabet)
-		if err != nil {
-			return run, symbolsParams{}, noAnswer(fmt.Errorf("symbols: %s: %w", path, err))
-		}
-	case "threshold":
-		p, err = partition.Threshold(o.thresholds)
-		if err != nil {
-			return run, symbolsParams{}, usagef("symbols: --thresholds: %v", err)
-		}
-	}
-	if o.kind != "search" {
-		sopt.Alphabet = p.K()
-		if f, h, err := partition.Score(values, p, sopt); err == nil {
-			p.Score, p.EntropyRate = f, h
-		} else {
-			run.cautions = append(run.cautions, "the partition could not be scored: "+err.Error())
-		}
-	}
-	alphabet, err := symbolic.DefaultAlphabet(p.K())
-	if err != nil {
-		return run, symbolsParams{}, usagef("symbols: %v", err)
-	}
-	run.values, run.valueName, run.part, run.alphabet = values, valueName, p, alphabet
-	run.rec, run.recFrom, run.applied = rec, recFrom, applied
-	if run.cautions == nil {
-		run.cautions = []string{}
-	}
-	params := symbolsParams{Column: s.Name, Partition: o.kind, Alphabet: p.K(), Record: rec, RecordFrom: recFrom, Section: secP}
-	return run, params, nil
-}
-
-// writeSymbols writes the stream of run to w (in chunks, over the run's alphabet) and returns
-// its sidecar, with the source, command line and version given.
-func (run *symbolsRun) writeSymbols(w io.Writer, name string, src symbolic.Source, command string) (*symbolic.Sidecar, error) {
-	sw, err := symbolic.NewWriter(w, run.alphabet)
-	if err != nil {
-		return nil, err
-	}
-	p, values := run.part, run.values
-	buf := make([]uint8, 0, 1<<15)
-	for i := 0; i < len(values); i += 1 << 15 {
-		buf = p.Apply(values[i:min(i+1<<15, len(values))], buf)
-		if err := sw.Write(buf); err != nil {
-			return nil, fmt.Errorf("symbols: writing %s: %w", name, err)
-		}
-	}
-	if err := sw.Close(); err != nil {
-		return nil, fmt.Errorf("symbols: writing %s: %w", name, err)
-	}
-	info := symbolic.PartitionInfo{Kind: p.Kind, Thresholds: p.Thresholds, Score: p.Score, Criterion: partition.Criterion, AppliedTo: run.applied}
-	if math.IsNaN(info.Score) {
-		info.Score = -1
-		info.Criterion = "not scored (-1)"
-	}
-	return sw.Sidecar(info, src, command, versionString()), nil
-}
-
-// result is the JSON body of `symbols` for the stream with sidecar sc, written to output
-// (and its sidecar to sidecar; both "" when the stream was kept in memory).
-func (run *symbolsRun) result(sc *symbolic.Sidecar, output, sidecar string) symbolsResult {
-	p := run.part
-	return symbolsResult{
-		Partition: partitionJSON{Kind: p.Kind, Thresholds: p.Thresholds, Score: finite(p.Score), Criterion: partition.Criterion,
-			EntropyRate: finite(p.EntropyRate), AppliedTo: run.applied, Rule: run.rule},
-		AlphabetSize: p.K(), Alphabet: run.alphabet, Count: sc.Count, Counts: sc.Counts,
-		Output: output, Sidecar: sidecar, Cautions: run.cautions}
-}
-
 func (a *app) runSymbols(cmd *cobra.Command, path string, o *symbolsOptions) error {
 	if o.output == "" || o.output == "-" {
 		return usagef("symbols: give the stream to write with -o OUT.sym")
 	}
-	if err := checkSymbolsOptions(o, cmd.Flags().Changed("alphabet")); err != nil {
+	if err := analysis.CheckSymbols(o.options(), cmd.Flags().Changed("alphabet")); err != nil {
 		return err
 	}
 	s, in, err := a.loadInput(path, &o.in)
 	if err != nil {
 		return err
 	}
-	run, params, err := a.symbolsCompute(path, s, o, "")
+	run, params, err := a.env(&o.in).Symbols(path, s, o.options(), "")
 	for _, n := range noteList(run) {
 		a.notef("%s", n)
 	}
@@ -343,7 +132,7 @@ func (a *app) runSymbols(cmd *cobra.Command, path string, o *symbolsOptions) err
 		return err
 	}
 	defer side.Abort()
-	sc, err := run.writeSymbols(out, o.output, symbolic.Source{Path: in.Path, SHA256: in.SHA256}, commandLine(cmd, []string{path}))
+	sc, err := run.WriteSymbols(out, o.output, symbolic.Source{Path: in.Path, SHA256: in.SHA256}, commandLine(cmd, []string{path}), versionString())
 	if err != nil {
 		return err
 	}
@@ -357,27 +146,27 @@ func (a *app) runSymbols(cmd *cobra.Command, path string, o *symbolsOptions) err
 		return err
 	}
 	if a.global.JSON {
-		return a.emitJSON("symbols", in, params, run.result(sc, o.output, sidePath))
+		return a.emitJSON("symbols", in, params, run.Result(sc, o.output, sidePath))
 	}
-	p := run.part
+	p := run.Part
 	g := func(v float64) string { return strconv.FormatFloat(v, 'g', 6, 64) }
 	rows := [][]string{
 		{"file", path},
-		{"record", run.rec.Kind + " (" + run.recFrom + "), symbols from the " + run.applied},
-		{"partition", p.Kind + " at " + thresholdText(p.Thresholds)},
+		{"record", run.Rec.Kind + " (" + run.RecFrom + "), symbols from the " + run.Applied},
+		{"partition", p.Kind + " at " + report.ThresholdText(p.Thresholds)},
 		{"score", g(p.Score) + " (symbolic false-neighbour fraction; lower is better)"},
 		{"entropy rate", g(p.EntropyRate) + " bits/symbol"},
-		{"alphabet", run.alphabet},
+		{"alphabet", run.Alphabet},
 		{"symbols", strconv.FormatInt(sc.Count, 10)},
 		{"written", o.output + " and " + sidePath},
 	}
-	if run.rule != "" {
-		rows = append(rows, []string{"rule", run.rule})
+	if run.Rule != "" {
+		rows = append(rows, []string{"rule", run.Rule})
 	}
 	if err := a.table(rows); err != nil {
 		return err
 	}
-	for _, c := range run.cautions {
+	for _, c := range run.Cautions {
 		fmt.Fprintf(a.stdout, "caution: %s\n", c)
 	}
 	return nil
@@ -388,14 +177,5 @@ func noteList(run *symbolsRun) []string {
 	if run == nil {
 		return nil
 	}
-	return run.notes
-}
-
-// thresholdText lists cut values with 6 significant digits, comma separated.
-func thresholdText(th []float64) string {
-	t := make([]string, len(th))
-	for i, v := range th {
-		t[i] = strconv.FormatFloat(v, 'g', 6, 64)
-	}
-	return strings.Join(t, ", ")
+	return run.Notes
 }
