@@ -252,7 +252,7 @@ func TestWriteStyle(t *testing.T) {
 		t.Fatal(err)
 	}
 	if b := img.Bounds(); b.Dx() != int((Width.Points()/72)*PNGDPI+0.5) || b.Dy() != int((Height.Points()/72)*PNGDPI+0.5) {
-		t.Errorf("PNG %v, want %g × %g in at %d dpi", b, (Width.Points()/72), (Height.Points()/72), PNGDPI)
+		t.Errorf("PNG %v, want %g × %g in at %d dpi", b, (Width.Points() / 72), (Height.Points() / 72), PNGDPI)
 	}
 	if err := Write(io.Discard, "gif", Width, Height, [][]*plot.Plot{{p}}); err == nil {
 		t.Error("gif: want an error")
