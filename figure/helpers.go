@@ -59,6 +59,26 @@ func AddCurve(p *plot.Plot, xs, ys []float64, c color.Color, legend string, poin
 	return nil
 }
 
+// AddLine draws ys against xs as a line of colour c and the given width, leaving out
+// non-finite pairs, and names it in the legend when legend is not empty.
+func AddLine(p *plot.Plot, xs, ys []float64, c color.Color, width vg.Length, legend string) error {
+	xy := finite(xs, ys)
+	if len(xy) == 0 {
+		return nil
+	}
+	l, err := plotter.NewLine(xy)
+	if err != nil {
+		return fmt.Errorf("figure: %w", err)
+	}
+	l.Color = c
+	l.Width = width
+	p.Add(l)
+	if legend != "" {
+		p.Legend.Add(legend, l)
+	}
+	return nil
+}
+
 // AddPoints draws the finite pairs (xs, ys) as dots of the given radius and colour.
 func AddPoints(p *plot.Plot, xs, ys []float64, c color.Color, radius vg.Length, legend string) error {
 	xy := finite(xs, ys)

@@ -56,7 +56,7 @@ func Font(size vg.Length) font.Font {
 }
 
 // The palette (Okabe & Ito 2008) in the project's order.
-var palette = [...]color.RGBA{
+var okabeIto = [...]color.RGBA{
 	{R: 0x00, G: 0x72, B: 0xb2, A: 0xff}, // blue
 	{R: 0xd5, G: 0x5e, B: 0x00, A: 0xff}, // vermillion
 	{R: 0x00, G: 0x9e, B: 0x73, A: 0xff}, // bluish green
@@ -70,8 +70,8 @@ var palette = [...]color.RGBA{
 // Colors returns the palette in the order curves take it: the first colour is the main curve,
 // the second the one compared with it, and so on.
 func Colors() []color.Color {
-	c := make([]color.Color, len(palette))
-	for i, p := range palette {
+	c := make([]color.Color, len(okabeIto))
+	for i, p := range okabeIto {
 		c[i] = p
 	}
 	return c
@@ -82,19 +82,19 @@ func Color(i int) color.Color {
 	if i < 0 {
 		i = -i
 	}
-	return palette[i%len(palette)]
+	return okabeIto[i%len(okabeIto)]
 }
 
 // Roles of colours, the same in every figure.
 
 // Main is the colour of the main curve or cloud (blue).
-func Main() color.Color { return palette[0] }
+func Main() color.Color { return okabeIto[0] }
 
 // Second is the colour of the curve compared with the main one (vermillion).
-func Second() color.Color { return palette[1] }
+func Second() color.Color { return okabeIto[1] }
 
 // Mark is the colour of a chosen value (a chosen lag, a fitted line): reddish purple.
-func Mark() color.Color { return palette[3] }
+func Mark() color.Color { return okabeIto[3] }
 
 // Guide is the colour of reference levels and thresholds (mid grey).
 func Guide() color.Color { return color.RGBA{R: 0x88, G: 0x88, B: 0x88, A: 0xff} }
@@ -215,4 +215,29 @@ func isSquare(p *plot.Plot) bool {
 	_, lx := p.X.Scale.(plot.LinearScale)
 	_, ly := p.Y.Scale.(plot.LinearScale)
 	return lx && ly && p.X.Min == p.Y.Min && p.X.Max == p.Y.Max && p.X.Max > p.X.Min
+}
+
+// SizeFor is the canvas of a grid of plots: Width wide; HeightFor(rows) high, or, when every
+// plot has equal axes (SquareAxes), high enough for square panels (at most SquareHeight for a
+// single panel).
+func SizeFor(rows [][]*plot.Plot) (w, h vg.Length) {
+	if len(rows) == 0 || len(rows[0]) == 0 {
+		return Width, Height
+	}
+	square := true
+	for _, r := range rows {
+		for _, p := range r {
+			if p != nil && !isSquare(p) {
+				square = false
+			}
+		}
+	}
+	if !square {
+		return Width, HeightFor(len(rows))
+	}
+	h = vg.Length(len(rows)) * (Width/vg.Length(len(rows[0])) + 0.4*vg.Inch)
+	if len(rows) == 1 && len(rows[0]) == 1 {
+		h = min(h, SquareHeight)
+	}
+	return Width, h
 }

@@ -8,6 +8,7 @@ import (
 	"strings"
 
 	"gonum.org/v1/plot"
+	"gonum.org/v1/plot/text"
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
 	"gonum.org/v1/plot/vg/vgimg"
@@ -64,6 +65,9 @@ func Write(w io.Writer, format string, width, height vg.Length, rows [][]*plot.P
 			s.restore()
 		}
 	}()
+	tiles := draw.Tiles{Rows: len(rows), Cols: len(rows[0]), PadTop: vg.Millimeter * 2, PadBottom: vg.Millimeter * 2,
+		PadLeft: vg.Millimeter * 2, PadRight: vg.Millimeter * 4, PadX: vg.Millimeter * 7, PadY: vg.Millimeter * 5}
+	tileW := (width - tiles.PadLeft - tiles.PadRight - vg.Length(tiles.Cols-1)*tiles.PadX) / vg.Length(tiles.Cols)
 	legends := make([][]legendSpot, len(rows))
 	for i, r := range rows {
 		legends[i] = make([]legendSpot, len(r))
@@ -74,12 +78,11 @@ func Write(w io.Writer, format string, width, height vg.Length, rows [][]*plot.P
 			s := save(p)
 			states = append(states, s)
 			Restyle(p)
+			p.Title.Text = wrap(p.Title.TextStyle, p.Title.Text, tileW)
 			legends[i][j] = liftLegend(p)
 		}
 	}
 	dc := draw.New(c)
-	tiles := draw.Tiles{Rows: len(rows), Cols: len(rows[0]), PadTop: vg.Millimeter * 2, PadBottom: vg.Millimeter * 2,
-		PadLeft: vg.Millimeter * 2, PadRight: vg.Millimeter * 4, PadX: vg.Millimeter * 7, PadY: vg.Millimeter * 5}
 	canvases := plot.Align(rows, tiles, dc)
 	for i, r := range rows {
 		for j, p := range r {
@@ -181,6 +184,32 @@ func thinTicks(p *plot.Plot, data draw.Canvas) {
 	if t, ok := p.Y.Tick.Marker.(Ticks); ok && t.N == 0 {
 		p.Y.Tick.Marker = Ticks{N: min(7, max(3, int(h/(0.5*vg.Inch))))}
 	}
+}
+
+// wrap breaks text at spaces so that no line is wider than width (explicit line breaks kept).
+func wrap(st text.Style, s string, width vg.Length) string {
+	if s == "" || st.Width(s) <= width {
+		return s
+	}
+	var out []string
+	for _, line := range strings.Split(s, "\n") {
+		words := strings.Fields(line)
+		cur := ""
+		for _, w := range words {
+			next := w
+			if cur != "" {
+				next = cur + " " + w
+			}
+			if cur != "" && st.Width(next) > width {
+				out = append(out, cur)
+				cur = w
+				continue
+			}
+			cur = next
+		}
+		out = append(out, cur)
+	}
+	return strings.Join(out, "\n")
 }
 
 // squareTile narrows (or shortens) the tile so that the plot's data area is square.

@@ -12,9 +12,9 @@ import (
 	"github.com/spf13/pflag"
 	"gonum.org/v1/gonum/mat"
 	"gonum.org/v1/plot"
-	"gonum.org/v1/plot/vg"
 
 	"unfold/embed"
+	"unfold/figure"
 	"unfold/neighbors"
 	"unfold/series"
 )
@@ -180,15 +180,12 @@ func (a *app) runEmbed(path string, o *embedOptions) error {
 		}
 	}
 	if o.plot != "" {
-		rows, err := embed.StateSpacePlots(e, fig, embed.StateSpaceOptions{Azimuth: o.azimuth, Elevation: o.elevation, DensityAbove: o.densityAbove})
+		rows, err := figure.StateSpacePlots(e, fig, figure.StateSpaceOptions{Azimuth: o.azimuth, Elevation: o.elevation, DensityAbove: o.densityAbove})
 		if err != nil {
 			return fmt.Errorf("embed: figure: %w", err)
 		}
-		w := 7 * vg.Inch
-		if len(rows[0]) > 1 {
-			w = 14 * vg.Inch
-		}
-		if err := writeFigureFile(o.plot, path, w, 6.5*vg.Inch, rows); err != nil {
+		w, h := figure.SizeFor(rows)
+		if err := writeFigureFile(o.plot, path, w, h, rows); err != nil {
 			return err
 		}
 	}
@@ -201,11 +198,11 @@ func (a *app) runEmbed(path string, o *embedOptions) error {
 		if err != nil {
 			return noAnswer(fmt.Errorf("embed: %s: %w", path, err))
 		}
-		p, err := embed.STPPlot(st, e, theiler, fig)
+		p, err := figure.STPPlot(st, e, theiler, fig)
 		if err != nil {
 			return fmt.Errorf("embed: figure: %w", err)
 		}
-		if err := writeFigureFile(o.stp, path, 9*vg.Inch, 6*vg.Inch, [][]*plot.Plot{{p}}); err != nil {
+		if err := writeFigureFile(o.stp, path, figure.Width, figure.Height, [][]*plot.Plot{{p}}); err != nil {
 			return err
 		}
 		body := &stpBody{Fractions: st.Fractions}

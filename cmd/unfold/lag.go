@@ -13,6 +13,7 @@ import (
 	"gonum.org/v1/plot/vg"
 
 	"unfold/embed"
+	"unfold/figure"
 	"unfold/series"
 )
 
@@ -206,11 +207,11 @@ func (a *app) runLag(path string, o *lagOptions) error {
 		}
 	}
 	if o.plot != "" {
-		rows, err := embed.LagPlots(c, figureOf(path, s))
+		rows, err := figure.LagPlots(c, figureOf(path, s))
 		if err != nil {
 			return fmt.Errorf("lag: figure: %w", err)
 		}
-		if err := writeFigureFile(o.plot, path, 9*vg.Inch, 7.5*vg.Inch, rows); err != nil {
+		if err := writeFigureFile(o.plot, path, figure.Width, figure.HeightFor(len(rows)), rows); err != nil {
 			return err
 		}
 	}
@@ -252,12 +253,12 @@ const ln2 = 0.6931471805599453
 func fmtG(v float64) string { return strconv.FormatFloat(v, 'g', 6, 64) }
 
 // figureOf describes the record for the figure titles and axis labels.
-func figureOf(path string, s *series.Series) embed.Figure {
+func figureOf(path string, s *series.Series) figure.Record {
 	title := filepath.Base(path)
 	if path == "-" {
 		title = "standard input"
 	}
-	return embed.Figure{Title: title, Signal: s.Name, Unit: s.Unit, Dt: s.Dt, TimeUnit: "time units"}
+	return figure.Record{Title: title, Signal: s.Name, Unit: s.Unit, Dt: s.Dt, TimeUnit: "time units"}
 }
 
 // checkFigurePath accepts "" or a name ending in .png or .svg.
@@ -275,7 +276,7 @@ func checkFigurePath(p string) error {
 // writeFigureFile draws rows into path (format from the extension) through an atomic file.
 func writeFigureFile(path, input string, w, h vg.Length, rows [][]*plot.Plot) error {
 	var buf bytes.Buffer
-	if err := embed.WriteFigure(&buf, strings.TrimPrefix(strings.ToLower(filepath.Ext(path)), "."), w, h, rows); err != nil {
+	if err := figure.Write(&buf, strings.TrimPrefix(strings.ToLower(filepath.Ext(path)), "."), w, h, rows); err != nil {
 		return err
 	}
 	return writeBytesFile(path, input, buf.Bytes())

@@ -10,8 +10,8 @@ import (
 	"github.com/spf13/cobra"
 	"github.com/spf13/pflag"
 	"gonum.org/v1/plot"
-	"gonum.org/v1/plot/vg"
 
+	"unfold/figure"
 	"unfold/fit"
 	"unfold/lyapunov"
 	"unfold/neighbors"
@@ -324,7 +324,7 @@ func (a *app) lyapunovCompute(path string, s *series.Series, o *lyapunovOptions,
 // lyapunovFigure draws the divergence curves with the fit range shaded and the fitted line.
 func lyapunovFigure(run *lyapunovRun, name string) (*plot.Plot, error) {
 	r := run.r
-	p, err := lyapunov.DivergencePlot(r, fmt.Sprintf("%s: divergence (%s, m = %d, τ = %d, Theiler %d)", name, run.method, r.Dim, r.Lag, r.Theiler))
+	p, err := figure.DivergencePlot(r, fmt.Sprintf("%s: divergence (%s, m = %d, τ = %d, Theiler %d)", name, run.method, r.Dim, r.Lag, r.Theiler), "")
 	if err != nil {
 		return nil, fmt.Errorf("lyapunov: figure: %w", err)
 	}
@@ -374,7 +374,7 @@ func (a *app) runLyapunov(path string, o *lyapunovOptions) error {
 		if err != nil {
 			return err
 		}
-		if err := writeFigureFile(o.plot, path, 8*vg.Inch, 5.5*vg.Inch, [][]*plot.Plot{{pl}}); err != nil {
+		if err := writeFigureFile(o.plot, path, figure.Width, figure.Height, [][]*plot.Plot{{pl}}); err != nil {
 			return err
 		}
 	}

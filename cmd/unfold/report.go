@@ -14,10 +14,10 @@ import (
 
 	"github.com/spf13/cobra"
 	"github.com/spf13/pflag"
-	"gonum.org/v1/plot/vg"
 
 	"unfold/demo"
 	"unfold/embed"
+	"unfold/figure"
 	"unfold/report"
 	"unfold/series"
 )
@@ -354,7 +354,7 @@ func (a *app) reportStages(path string, s *series.Series, in *inputInfo, o *repo
 			if err != nil {
 				return nil, err
 			}
-			rows, err := embed.LagPlots(c, fig)
+			rows, err := figure.LagPlots(c, fig)
 			if err != nil {
 				return nil, fmt.Errorf("lag: figure: %w", err)
 			}
@@ -370,7 +370,7 @@ func (a *app) reportStages(path string, s *series.Series, in *inputInfo, o *repo
 			}
 			return &report.Section{JSON: js, Summary: sum, Cautions: res.Cautions, Figures: []report.Figure{{Name: "lag",
 				Caption: "Mutual information (bits) and autocorrelation against the delay; the chosen lag is marked.",
-				Width:   9 * vg.Inch, Height: 7.5 * vg.Inch, Rows: rows}}}, nil
+				Width:   figure.Width, Height: figure.HeightFor(len(rows)), Rows: rows}}}, nil
 		}},
 		{Key: "dim", Title: "Dimension: false neighbours and Cao's E1/E2", Run: func() (*report.Section, error) {
 			do := &dimOptions{}
@@ -387,7 +387,7 @@ func (a *app) reportStages(path string, s *series.Series, in *inputInfo, o *repo
 			if err != nil {
 				return nil, err
 			}
-			rows, err := embed.DimPlots(c, fig)
+			rows, err := figure.DimPlots(c, fig)
 			if err != nil {
 				return nil, fmt.Errorf("dim: figure: %w", err)
 			}
@@ -403,7 +403,7 @@ func (a *app) reportStages(path string, s *series.Series, in *inputInfo, o *repo
 				{"lag, Theiler window", fmt.Sprintf("%d samples (%s), %d samples (%s)", p.Lag, p.LagMethod, p.Theiler, p.TheilerFrom)},
 			}, Figures: []report.Figure{{Name: "dim",
 				Caption: "False-neighbour fraction and Cao's E1, E2 against the dimension; the chosen dimension is marked.",
-				Width:   9 * vg.Inch, Height: 7.5 * vg.Inch, Rows: rows}}}
+				Width:   figure.Width, Height: figure.HeightFor(len(rows)), Rows: rows}}}
 			if c.Dimension == 0 {
 				return sec, noAnswer(fmt.Errorf("dim: %s", c.Reason))
 			}
@@ -425,16 +425,11 @@ func (a *app) reportStages(path string, s *series.Series, in *inputInfo, o *repo
 			if err != nil {
 				return nil, err
 			}
-			rows, err := embed.StateSpacePlots(e, fig, embed.StateSpaceOptions{Azimuth: o.azimuth, Elevation: o.elevation, DensityAbove: 3000, Bins: 140})
+			rows, err := figure.StateSpacePlots(e, fig, figure.StateSpaceOptions{Azimuth: o.azimuth, Elevation: o.elevation, DensityAbove: 3000, Bins: 140})
 			if err != nil {
 				return nil, fmt.Errorf("embed: figure: %w", err)
 			}
-			// smaller canvases than the command's: the page scales them to one column, and
-			// gonum's text keeps its size in points
-			w, h := 6*vg.Inch, 5.5*vg.Inch
-			if len(rows[0]) > 1 {
-				w, h = 11*vg.Inch, 5*vg.Inch
-			}
+			w, h := figure.SizeFor(rows)
 			return &report.Section{JSON: js, Cautions: res.Cautions, Summary: [][2]string{
 				{"delay vectors", fmt.Sprintf("%d of dimension %d at lag %d samples", res.Vectors, res.Dimension, res.Lag)},
 				{"lag / dimension from", p.LagMethod + " / " + p.DimMethod},

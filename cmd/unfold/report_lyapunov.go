@@ -6,8 +6,8 @@ import (
 
 	"github.com/spf13/pflag"
 	"gonum.org/v1/plot"
-	"gonum.org/v1/plot/vg"
 
+	"unfold/figure"
 	"unfold/report"
 	"unfold/series"
 )
@@ -55,6 +55,6 @@ func (a *app) lyapunovStage(path string, s *series.Series, o *reportOptions, st 
 		}
 		return &report.Section{JSON: js, Summary: sum, Cautions: res.Cautions, Figures: []report.Figure{{Name: "lyapunov",
 			Caption: "Mean log separation of initially close delay vectors against the steps ahead; the fit range is shaded and λ_max is the slope there.",
-			Width:   8 * vg.Inch, Height: 5.5 * vg.Inch, Rows: [][]*plot.Plot{{pl}}}}}, noFit
+			Width:   figure.Width, Height: figure.Height, Rows: [][]*plot.Plot{{pl}}}}}, noFit
 	}}
 }

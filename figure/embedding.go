@@ -1,12 +1,10 @@
-package embed
+package figure
 
 import (
 	"fmt"
 	"image/color"
-	"io"
 	"math"
 	"strconv"
-	"strings"
 
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/palette"
@@ -14,14 +12,14 @@ import (
 	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
-	"gonum.org/v1/plot/vg/vgimg"
-	"gonum.org/v1/plot/vg/vgsvg"
+
+	"unfold/embed"
 )
 
-// Figure describes the record a figure is drawn from: its title (the file name), the signal
+// Record describes the record a figure is drawn from: its title (the file name), the signal
 // name and unit, and the sampling interval with its unit, so that every axis states units and
 // every lag is given in samples and in time.
-type Figure struct {
+type Record struct {
 	Title    string  // usually the input file name
 	Signal   string  // signal name ("x" when empty)
 	Unit     string  // unit of the signal ("" when unknown)
@@ -29,28 +27,28 @@ type Figure struct {
 	TimeUnit string  // unit of Dt ("time units" when empty)
 }
 
-func (f Figure) signal() string {
+func (f Record) signal() string {
 	if f.Signal == "" {
 		return "x"
 	}
 	return f.Signal
 }
 
-func (f Figure) unitSuffix() string {
+func (f Record) unitSuffix() string {
 	if f.Unit == "" {
 		return ""
 	}
 	return " [" + f.Unit + "]"
 }
 
-func (f Figure) timeUnit() string {
+func (f Record) timeUnit() string {
 	if f.TimeUnit == "" {
 		return "time units"
 	}
 	return f.TimeUnit
 }
 
-func (f Figure) dt() float64 {
+func (f Record) dt() float64 {
 	if f.Dt > 0 {
 		return f.Dt
 	}
@@ -58,7 +56,7 @@ func (f Figure) dt() float64 {
 }
 
 // lagText is "15 samples = 0.15 s".
-func (f Figure) lagText(lag int) string {
+func (f Record) lagText(lag int) string {
 	s := "samples"
 	if lag == 1 {
 		s = "sample"
@@ -66,151 +64,10 @@ func (f Figure) lagText(lag int) string {
 	return fmt.Sprintf("%d %s = %s %s", lag, s, strconv.FormatFloat(float64(lag)*f.dt(), 'g', 4, 64), f.timeUnit())
 }
 
-// Colours used by every figure (blue and orange read apart under colour blindness), as
-// functions so that no package state exists.
-func colorMain() color.Color   { return color.RGBA{R: 0x1f, G: 0x5f, B: 0xa8, A: 0xff} }
-func colorSecond() color.Color { return color.RGBA{R: 0xd9, G: 0x6b, B: 0x0b, A: 0xff} }
-func colorMark() color.Color   { return color.RGBA{R: 0xb2, G: 0x18, B: 0x2b, A: 0xff} }
-func colorGuide() color.Color  { return color.RGBA{R: 0x80, G: 0x80, B: 0x80, A: 0xff} }
-
-// WriteFigure draws the plots as a grid (rows of equal length) on a canvas of the given size
-// and writes it to w as "png" (110 dpi) or "svg".
-func WriteFigure(w io.Writer, format string, width, height vg.Length, rows [][]*plot.Plot) error {
-	if len(rows) == 0 || len(rows[0]) == 0 {
-		return fmt.Errorf("figure: nothing to draw")
-	}
-	var c vg.CanvasWriterTo
-	switch strings.ToLower(format) {
-	case "png":
-		c = vgimg.PngCanvas{Canvas: vgimg.NewWith(vgimg.UseWH(width, height), vgimg.UseDPI(110), vgimg.UseBackgroundColor(color.White))}
-	case "svg":
-		c = vgsvg.New(width, height)
-	default:
-		return fmt.Errorf("figure: unknown format %q (want png or svg)", format)
-	}
-	dc := draw.New(c)
-	tiles := draw.Tiles{Rows: len(rows), Cols: len(rows[0]), PadTop: vg.Millimeter * 2, PadBottom: vg.Millimeter * 2,
-		PadLeft: vg.Millimeter * 2, PadRight: vg.Millimeter * 4, PadX: vg.Millimeter * 8, PadY: vg.Millimeter * 6}
-	canvases := plot.Align(rows, tiles, dc)
-	for i, r := range rows {
-		for j, p := range r {
-			if p != nil {
-				p.Draw(canvases[i][j])
-			}
-		}
-	}
-	_, err := c.WriteTo(w)
-	if err != nil {
-		return fmt.Errorf("figure: %w", err)
-	}
-	return nil
-}
-
-func newPlot(title, xlabel, ylabel string) *plot.Plot {
-	p := plot.New()
-	p.Title.Text = title
-	p.Title.TextStyle.Font.Size = vg.Points(12)
-	p.X.Label.Text = xlabel
-	p.Y.Label.Text = ylabel
-	p.X.Label.TextStyle.Font.Size = vg.Points(11)
-	p.Y.Label.TextStyle.Font.Size = vg.Points(11)
-	p.X.Tick.Label.Font.Size = vg.Points(10)
-	p.Y.Tick.Label.Font.Size = vg.Points(10)
-	p.Legend.TextStyle.Font.Size = vg.Points(10)
-	p.Legend.Top = true
-	p.Add(plotter.NewGrid())
-	return p
-}
-
-func addCurve(p *plot.Plot, xs, ys []float64, c color.Color, legend string, points bool) error {
-	xy := make(plotter.XYs, 0, len(xs))
-	for i := range xs {
-		if !math.IsNaN(ys[i]) && !math.IsInf(ys[i], 0) {
-			xy = append(xy, plotter.XY{X: xs[i], Y: ys[i]})
-		}
-	}
-	if len(xy) == 0 {
-		return nil
-	}
-	l, err := plotter.NewLine(xy)
-	if err != nil {
-		return err
-	}
-	l.Color = c
-	l.Width = vg.Points(1.5)
-	p.Add(l)
-	if points {
-		s, err := plotter.NewScatter(xy)
-		if err != nil {
-			return err
-		}
-		s.Color = c
-		s.Radius = vg.Points(2.2)
-		s.Shape = draw.CircleGlyph{}
-		p.Add(s)
-	}
-	if legend != "" {
-		p.Legend.Add(legend, l)
-	}
-	return nil
-}
-
-// vline marks x = at across the plot's current y range (call after the data are added).
-func vline(p *plot.Plot, at float64, c color.Color, legend string, dashed bool) {
-	p.Add(&marker{x: at, vertical: true, c: c, dashed: dashed})
-	if legend != "" {
-		l := &plotter.Line{LineStyle: draw.LineStyle{Color: c, Width: vg.Points(1.5)}}
-		if dashed {
-			l.Dashes = []vg.Length{vg.Points(4), vg.Points(3)}
-		}
-		p.Legend.Add(legend, l)
-	}
-}
-
-// hline marks y = at across the plot.
-func hline(p *plot.Plot, at float64, c color.Color, legend string) {
-	p.Add(&marker{y: at, c: c, dashed: true})
-	if legend != "" {
-		p.Legend.Add(legend, &plotter.Line{LineStyle: draw.LineStyle{Color: c, Width: vg.Points(1), Dashes: []vg.Length{vg.Points(4), vg.Points(3)}}})
-	}
-}
-
-// marker is a full-width or full-height line drawn in data coordinates.
-type marker struct {
-	x, y     float64
-	vertical bool
-	c        color.Color
-	dashed   bool
-}
-
-func (m *marker) Plot(c draw.Canvas, p *plot.Plot) {
-	tx, ty := p.Transforms(&c)
-	st := draw.LineStyle{Color: m.c, Width: vg.Points(1.3)}
-	if m.dashed {
-		st.Dashes = []vg.Length{vg.Points(4), vg.Points(3)}
-		st.Width = vg.Points(1)
-	}
-	if m.vertical {
-		x := tx(m.x)
-		c.StrokeLine2(st, x, c.Min.Y, x, c.Max.Y)
-	} else {
-		y := ty(m.y)
-		c.StrokeLine2(st, c.Min.X, y, c.Max.X, y)
-	}
-}
-
-// DataRange makes the marker count in the axis range only along its own axis.
-func (m *marker) DataRange() (xmin, xmax, ymin, ymax float64) {
-	if m.vertical {
-		return m.x, m.x, math.Inf(1), math.Inf(-1)
-	}
-	return math.Inf(1), math.Inf(-1), m.y, m.y
-}
-
 // LagPlots returns the two panels of the lag figure: the mutual information in bits against
 // the lag, with its standard errors, the bias level and the chosen lag marked; and the
 // autocorrelation with its zero and 1/e levels.
-func LagPlots(c *LagChoice, f Figure) ([][]*plot.Plot, error) {
+func LagPlots(c *embed.LagChoice, f Record) ([][]*plot.Plot, error) {
 	n := len(c.MI.Nats)
 	lags := make([]float64, n)
 	bits := make([]float64, n)
@@ -224,37 +81,36 @@ func LagPlots(c *LagChoice, f Figure) ([][]*plot.Plot, error) {
 	}
 	xlabel := fmt.Sprintf("lag τ [samples; 1 sample = %s %s]", strconv.FormatFloat(f.dt(), 'g', 4, 64), f.timeUnit())
 	est := "equiprobable bins, B = " + strconv.Itoa(c.MI.Bins)
-	if c.MI.Estimator == KSG {
+	if c.MI.Estimator == embed.KSG {
 		est = fmt.Sprintf("KSG, k = %d, %d points", c.MI.K, c.MI.Points)
 	}
-	top := newPlot(fmt.Sprintf("%s — mutual information of %s(t) and %s(t+τ) (%s)", f.Title, f.signal(), f.signal(), est),
+	top := New(fmt.Sprintf("%s — mutual information of %s(t) and %s(t+τ) (%s)", f.Title, f.signal(), f.signal(), est),
 		"", "mutual information [bits]")
 	// Leave out lag 0 (ln B or ψ(N)−ψ(k), off the scale) so the minimum is visible.
 	from := min(1, n-1)
-	if err := addCurve(top, lags[from:], hi[from:], color.RGBA{R: 0x9e, G: 0xbc, B: 0xda, A: 0xff}, "± 1 standard error", false); err != nil {
+	if err := AddCurve(top, lags[from:], hi[from:], Faint(Main(), 0.45), "± 1 standard error", false); err != nil {
 		return nil, err
 	}
-	if err := addCurve(top, lags[from:], lo[from:], color.RGBA{R: 0x9e, G: 0xbc, B: 0xda, A: 0xff}, "", false); err != nil {
+	if err := AddCurve(top, lags[from:], lo[from:], Faint(Main(), 0.45), "", false); err != nil {
 		return nil, err
 	}
-	if err := addCurve(top, lags[from:], bits[from:], colorMain(), "mutual information", n <= 80); err != nil {
+	if err := AddCurve(top, lags[from:], bits[from:], Main(), "mutual information", n <= 80); err != nil {
 		return nil, err
 	}
 	if c.MI.Bias > 0 {
-		hline(top, c.MI.Bias/math.Ln2, colorGuide(), "independence bias (B−1)²/2N")
+		HLine(top, c.MI.Bias/math.Ln2, Guide(), "independence bias (B−1)²/2N")
 	}
-	vline(top, float64(c.Lag), colorMark(), "chosen lag "+f.lagText(c.Lag)+" ("+c.Method+")", false)
+	VLine(top, float64(c.Lag), Mark(), "chosen lag "+f.lagText(c.Lag)+" ("+c.Method+")", false)
 	top.Y.Min = 0
 
-	bot := newPlot("", xlabel, "autocorrelation r(τ)")
-	if err := addCurve(bot, lags, c.ACF.R, colorSecond(), "autocorrelation", false); err != nil {
+	bot := New("", xlabel, "autocorrelation r(τ)")
+	if err := AddCurve(bot, lags, c.ACF.R, Second(), "autocorrelation", false); err != nil {
 		return nil, err
 	}
-	hline(bot, 1/math.E, colorGuide(), "1/e")
-	hline(bot, 0, color.Black, "")
-	vline(bot, float64(c.Lag), colorMark(), "", false)
+	HLine(bot, 1/math.E, Guide(), "1/e")
+	HLine(bot, 0, color.Black, "")
+	VLine(bot, float64(c.Lag), Mark(), "", false)
 	bot.Y.Min, bot.Y.Max = math.Min(-0.2, minOf(c.ACF.R)), 1.05
-	bot.Legend.Left = false
 	for _, p := range []*plot.Plot{top, bot} {
 		p.X.Min, p.X.Max = 0, float64(n-1)
 	}
@@ -264,89 +120,69 @@ func LagPlots(c *LagChoice, f Figure) ([][]*plot.Plot, error) {
 // DimPlots returns the two panels of the dimension figure: the false-neighbour fraction in
 // percent against m with the threshold, and Cao's E1 and E2 against d with the 0.9 level; the
 // chosen dimension is marked on both.
-func DimPlots(c *DimChoice, f Figure) ([][]*plot.Plot, error) {
+func DimPlots(c *embed.DimChoice, f Record) ([][]*plot.Plot, error) {
 	ms := make([]float64, len(c.FNN))
 	fr := make([]float64, len(c.FNN))
 	for i, p := range c.FNN {
 		ms[i] = float64(p.Dim)
 		fr[i] = 100 * p.Fraction
 	}
-	top := newPlot(fmt.Sprintf("%s — false nearest neighbours of %s, lag %s, Theiler window %d samples", f.Title, f.signal(), f.lagText(c.Lag), c.Theiler),
+	top := New(fmt.Sprintf("%s — false nearest neighbours of %s, lag %s, Theiler window %d samples", f.Title, f.signal(), f.lagText(c.Lag), c.Theiler),
 		"", "false neighbours [% of points]")
-	if err := addCurve(top, ms, fr, colorMain(), fmt.Sprintf("false fraction (R_tol %g, A_tol %g)", c.RTol, c.ATol), true); err != nil {
+	if err := AddCurve(top, ms, fr, Main(), fmt.Sprintf("false fraction (R_tol %g, A_tol %g)", c.RTol, c.ATol), true); err != nil {
 		return nil, err
 	}
-	hline(top, 100*c.Threshold, colorGuide(), fmt.Sprintf("threshold %g %%", 100*c.Threshold))
+	HLine(top, 100*c.Threshold, Guide(), fmt.Sprintf("threshold %g %%", 100*c.Threshold))
 	top.Y.Min = 0
-	bot := newPlot("", "embedding dimension m (d for Cao's E1, E2)", "E1(d), E2(d) [ratio, no unit]")
+	bot := New("", "embedding dimension m (d for Cao's E1, E2)", "E1(d), E2(d) [ratio, no unit]")
 	ds := make([]float64, len(c.Cao))
 	e1 := make([]float64, len(c.Cao))
 	e2 := make([]float64, len(c.Cao))
 	for i, p := range c.Cao {
 		ds[i], e1[i], e2[i] = float64(p.Dim), p.E1, p.E2
 	}
-	if err := addCurve(bot, ds, e1, colorMain(), "E1 (saturates at the dimension)", true); err != nil {
+	if err := AddCurve(bot, ds, e1, Main(), "E1 (saturates at the dimension)", true); err != nil {
 		return nil, err
 	}
-	if err := addCurve(bot, ds, e2, colorSecond(), "E2 (≈ 1 everywhere for noise)", true); err != nil {
+	if err := AddCurve(bot, ds, e2, Second(), "E2 (≈ 1 everywhere for noise)", true); err != nil {
 		return nil, err
 	}
-	hline(bot, 0.9, colorGuide(), "E1 = 0.9")
+	HLine(bot, 0.9, Guide(), "E1 = 0.9")
 	bot.Y.Min = 0
 	bot.Y.Max = math.Max(1.2, maxOf(e2)*1.05)
-	bot.Legend.Top = false
 	if c.Dimension > 0 {
 		lbl := fmt.Sprintf("chosen m = %d (%s)", c.Dimension, c.Method)
-		vline(top, float64(c.Dimension), colorMark(), lbl, false)
-		vline(bot, float64(c.Dimension), colorMark(), "", false)
+		VLine(top, float64(c.Dimension), Mark(), lbl, false)
+		VLine(bot, float64(c.Dimension), Mark(), "", false)
 	}
 	for _, p := range []*plot.Plot{top, bot} {
 		p.X.Min, p.X.Max = 0.5, float64(c.MaxDim)+0.5
-		p.X.Tick.Marker = integerTicks{}
+		p.X.Tick.Marker = IntegerTicks{}
 	}
 	return [][]*plot.Plot{{top}, {bot}}, nil
 }
 
-// integerTicks labels every integer of the axis range.
-type integerTicks struct{}
-
-func (integerTicks) Ticks(lo, hi float64) []plot.Tick {
-	var t []plot.Tick
-	for v := math.Ceil(lo); v <= hi; v++ {
-		t = append(t, plot.Tick{Value: v, Label: strconv.Itoa(int(v))})
-	}
-	return t
-}
-
 // STPPlot returns the space–time separation plot: one contour per fraction, the distance
 // against the time separation, with the Theiler window marked when theiler > 0.
-func STPPlot(s *STP, e Embedding, theiler int, f Figure) (*plot.Plot, error) {
-	p := newPlot(fmt.Sprintf("%s — space–time separation, m = %d, lag %s", f.Title, e.Dim, f.lagText(e.Lag)),
+func STPPlot(s *embed.STP, e embed.Embedding, theiler int, f Record) (*plot.Plot, error) {
+	p := New(fmt.Sprintf("%s — space–time separation, m = %d, lag %s", f.Title, e.Dim, f.lagText(e.Lag)),
 		fmt.Sprintf("time separation Δt [samples; 1 sample = %s %s]", strconv.FormatFloat(f.dt(), 'g', 4, 64), f.timeUnit()),
 		"distance between delay vectors"+f.unitSuffix())
 	dts := make([]float64, len(s.Dt))
 	for i, d := range s.Dt {
 		dts[i] = float64(d)
 	}
-	ramp := []color.Color{
-		color.RGBA{R: 0x08, G: 0x30, B: 0x6b, A: 0xff}, color.RGBA{R: 0x21, G: 0x71, B: 0xb5, A: 0xff},
-		color.RGBA{R: 0x1b, G: 0x9e, B: 0x77, A: 0xff}, color.RGBA{R: 0xd9, G: 0x5f, B: 0x02, A: 0xff},
-		color.RGBA{R: 0xe7, G: 0x29, B: 0x8a, A: 0xff}, color.RGBA{R: 0x67, G: 0x00, B: 0x0d, A: 0xff},
-	}
 	for i, fr := range s.Fractions {
-		col := ramp[i%len(ramp)]
-		if err := addCurve(p, dts, s.Dist[i], col, fmt.Sprintf("%g %% of pairs closer", 100*fr), false); err != nil {
+		col := Color(i)
+		if err := AddCurve(p, dts, s.Dist[i], col, fmt.Sprintf("%g %% of pairs closer", 100*fr), false); err != nil {
 			return nil, err
 		}
 	}
 	if theiler > 0 {
-		vline(p, float64(theiler), colorGuide(), "Theiler window "+f.lagText(theiler), true)
+		VLine(p, float64(theiler), Guide(), "Theiler window "+f.lagText(theiler), true)
 	}
 	p.Y.Min = 0
 	p.X.Min = 0
-	p.Legend.Left = true
-	p.Legend.Top = true
-	p.Legend.XOffs = vg.Millimeter * 3
 	return p, nil
 }
 
@@ -366,7 +202,7 @@ type StateSpaceOptions struct {
 // x(t) and, for Dim ≥ 3, an oblique projection of (x(t), x(t+τ), x(t+2τ)) rotated by the
 // azimuth and elevation. Up to DensityAbove vectors are drawn as points, more as a density
 // image (log of counts per cell, gonum/plot HeatMap).
-func StateSpacePlots(e Embedding, f Figure, opt StateSpaceOptions) ([][]*plot.Plot, error) {
+func StateSpacePlots(e embed.Embedding, f Record, opt StateSpaceOptions) ([][]*plot.Plot, error) {
 	if err := e.Validate(); err != nil {
 		return nil, err
 	}
@@ -380,7 +216,7 @@ func StateSpacePlots(e Embedding, f Figure, opt StateSpaceOptions) ([][]*plot.Pl
 	dense := n > opt.DensityAbove
 	sig, u := f.signal(), f.unitSuffix()
 	lag := f.lagText(e.Lag)
-	flat := Embedding{X: e.X, Lag: e.Lag, Dim: 2}
+	flat := embed.Embedding{X: e.X, Lag: e.Lag, Dim: 2}
 	if e.Dim == 1 {
 		flat.Dim = 2
 	}
@@ -389,11 +225,12 @@ func StateSpacePlots(e Embedding, f Figure, opt StateSpaceOptions) ([][]*plot.Pl
 	for i := range xs {
 		xs[i], ys[i] = flat.At(i, 0), flat.At(i, 1)
 	}
-	p2 := newPlot(fmt.Sprintf("%s — delay plot, τ = %s", f.Title, lag),
+	p2 := New(fmt.Sprintf("%s — delay plot, τ = %s", f.Title, lag),
 		sig+"(t)"+u, sig+"(t + τ)"+u)
 	if err := addCloud(p2, xs, ys, dense, opt.Bins); err != nil {
 		return nil, err
 	}
+	SquareAxes(p2, 0.03)
 	row := []*plot.Plot{p2}
 	if dense {
 		p2.Title.Text += "\ncolour: log10 of the number of vectors per cell (white: none)"
@@ -405,12 +242,13 @@ func StateSpacePlots(e Embedding, f Figure, opt StateSpaceOptions) ([][]*plot.Pl
 		for i := 0; i < n; i++ {
 			px[i], py[i] = project(e.At(i, 0), e.At(i, 1), e.At(i, 2), az, el)
 		}
-		p3 := newPlot(fmt.Sprintf("3-D view of (%s(t), %s(t+τ), %s(t+2τ)), m = %d; azimuth %g°, elevation %g°", sig, sig, sig, e.Dim, opt.Azimuth, opt.Elevation),
+		p3 := New(fmt.Sprintf("3-D view of (%s(t), %s(t+τ), %s(t+2τ)), m = %d; azimuth %g°, elevation %g°", sig, sig, sig, e.Dim, opt.Azimuth, opt.Elevation),
 			"projected horizontal"+u, "projected vertical"+u)
 		if err := addCloud(p3, px, py, dense, opt.Bins); err != nil {
 			return nil, err
 		}
 		addAxesTriad(p3, px, py, az, el, sig)
+		SquareAxes(p3, 0.03)
 		row = append(row, p3)
 	}
 	return [][]*plot.Plot{row}, nil
@@ -445,7 +283,7 @@ func addAxesTriad(p *plot.Plot, px, py []float64, az, el float64, sig string) {
 		if err != nil {
 			continue
 		}
-		l.Color = colorMark()
+		l.Color = Mark()
 		l.Width = vg.Points(1.5)
 		p.Add(l)
 		labels.XYs = append(labels.XYs, plotter.XY{X: ox + 1.15*size*hx, Y: oy + 1.15*size*hy})
@@ -454,8 +292,8 @@ func addAxesTriad(p *plot.Plot, px, py []float64, az, el float64, sig string) {
 	if len(labels.Labels) > 0 {
 		if lb, err := plotter.NewLabels(labels); err == nil {
 			for i := range lb.TextStyle {
-				lb.TextStyle[i].Color = colorMark()
-				lb.TextStyle[i].Font.Size = vg.Points(9)
+				lb.TextStyle[i].Color = Mark()
+				lb.TextStyle[i].Font = Font(MinTextSize)
 			}
 			p.Add(lb)
 		}
@@ -473,7 +311,7 @@ func addCloud(p *plot.Plot, xs, ys []float64, dense bool, bins int) error {
 		if err != nil {
 			return err
 		}
-		s.Color = colorMain()
+		s.Color = Main()
 		s.Radius = vg.Points(0.8)
 		s.Shape = draw.CircleGlyph{}
 		p.Add(s)
@@ -532,23 +370,3 @@ func (g *density) Dims() (c, r int)   { return g.nx, g.ny }
 func (g *density) Z(c, r int) float64 { return g.z[r*g.nx+c] }
 func (g *density) X(c int) float64    { return g.x0 + (float64(c)+0.5)*g.dx }
 func (g *density) Y(r int) float64    { return g.y0 + (float64(r)+0.5)*g.dy }
-
-func minOf(v []float64) float64 {
-	m := math.Inf(1)
-	for _, x := range v {
-		if x < m {
-			m = x
-		}
-	}
-	return m
-}
-
-func maxOf(v []float64) float64 {
-	m := math.Inf(-1)
-	for _, x := range v {
-		if x > m {
-			m = x
-		}
-	}
-	return m
-}
