@@ -11,7 +11,6 @@ import (
 	"gonum.org/v1/plot/palette/moreland"
 	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/vg"
-	"gonum.org/v1/plot/vg/draw"
 
 	"unfold/embed"
 )
@@ -68,7 +67,13 @@ func (f Record) lagText(lag int) string {
 // the lag, with its standard errors, the bias level and the chosen lag marked; and the
 // autocorrelation with its zero and 1/e levels.
 func LagPlots(c *embed.LagChoice, f Record) ([][]*plot.Plot, error) {
+	if c == nil || c.MI == nil || c.ACF == nil || len(c.MI.Nats) == 0 {
+		return nil, fmt.Errorf("figure: lag: no mutual-information curve to draw")
+	}
 	n := len(c.MI.Nats)
+	if len(c.MI.Err) < n {
+		return nil, fmt.Errorf("figure: lag: %d standard errors for %d lags", len(c.MI.Err), n)
+	}
 	lags := make([]float64, n)
 	bits := make([]float64, n)
 	lo := make([]float64, n)
@@ -121,6 +126,9 @@ func LagPlots(c *embed.LagChoice, f Record) ([][]*plot.Plot, error) {
 // percent against m with the threshold, and Cao's E1 and E2 against d with the 0.9 level; the
 // chosen dimension is marked on both.
 func DimPlots(c *embed.DimChoice, f Record) ([][]*plot.Plot, error) {
+	if c == nil || (len(c.FNN) == 0 && len(c.Cao) == 0) {
+		return nil, fmt.Errorf("figure: dimension: no false-neighbour or Cao curve to draw")
+	}
 	ms := make([]float64, len(c.FNN))
 	fr := make([]float64, len(c.FNN))
 	for i, p := range c.FNN {
@@ -165,6 +173,9 @@ func DimPlots(c *embed.DimChoice, f Record) ([][]*plot.Plot, error) {
 // STPPlot returns the space–time separation plot: one contour per fraction, the distance
 // against the time separation, with the Theiler window marked when theiler > 0.
 func STPPlot(s *embed.STP, e embed.Embedding, theiler int, f Record) (*plot.Plot, error) {
+	if s == nil || len(s.Dt) == 0 || len(s.Dist) < len(s.Fractions) {
+		return nil, fmt.Errorf("figure: space–time separation: no contour to draw")
+	}
 	p := New(fmt.Sprintf("%s — space–time separation, m = %d, lag %s", f.Title, e.Dim, f.lagText(e.Lag)),
 		fmt.Sprintf("time separation Δt [samples; 1 sample = %s %s]", strconv.FormatFloat(f.dt(), 'g', 4, 64), f.timeUnit()),
 		"distance between delay vectors"+f.unitSuffix())
@@ -303,21 +314,13 @@ func addAxesTriad(p *plot.Plot, px, py []float64, az, el float64, sig string) {
 // addCloud draws points, or for dense clouds a log-density image.
 func addCloud(p *plot.Plot, xs, ys []float64, dense bool, bins int) error {
 	if !dense {
-		xy := make(plotter.XYs, len(xs))
-		for i := range xs {
-			xy[i] = plotter.XY{X: xs[i], Y: ys[i]}
-		}
-		s, err := plotter.NewScatter(xy)
-		if err != nil {
-			return err
-		}
-		s.Color = Main()
-		s.Radius = vg.Points(0.8)
-		s.Shape = draw.CircleGlyph{}
-		p.Add(s)
+		return AddPoints(p, xs, ys, Main(), vg.Points(0.9), "")
+	}
+	xy := finite(xs, ys)
+	if len(xy) == 0 {
 		return nil
 	}
-	g := newDensity(xs, ys, bins)
+	g := newDensity(xy, bins)
 	cm := palette.Reverse(moreland.BlackBody())
 	hm := plotter.NewHeatMap(g, cm.Palette(128))
 	hm.NaN = color.Transparent
@@ -335,9 +338,13 @@ type density struct {
 	min, max       float64
 }
 
-func newDensity(xs, ys []float64, bins int) *density {
-	x0, x1 := minOf(xs), maxOf(xs)
-	y0, y1 := minOf(ys), maxOf(ys)
+func newDensity(xy plotter.XYs, bins int) *density {
+	x0, x1 := math.Inf(1), math.Inf(-1)
+	y0, y1 := math.Inf(1), math.Inf(-1)
+	for _, q := range xy {
+		x0, x1 = math.Min(x0, q.X), math.Max(x1, q.X)
+		y0, y1 = math.Min(y0, q.Y), math.Max(y1, q.Y)
+	}
 	if x1 == x0 {
 		x1 = x0 + 1
 	}
@@ -345,9 +352,9 @@ func newDensity(xs, ys []float64, bins int) *density {
 		y1 = y0 + 1
 	}
 	g := &density{nx: bins, ny: bins, x0: x0, y0: y0, dx: (x1 - x0) / float64(bins), dy: (y1 - y0) / float64(bins), z: make([]float64, bins*bins)}
-	for i := range xs {
-		c := min(int((xs[i]-x0)/g.dx), bins-1)
-		r := min(int((ys[i]-y0)/g.dy), bins-1)
+	for _, q := range xy {
+		c := min(int((q.X-x0)/g.dx), bins-1)
+		r := min(int((q.Y-y0)/g.dy), bins-1)
 		g.z[r*bins+c]++
 	}
 	g.min, g.max = math.Inf(1), math.Inf(-1)

@@ -34,15 +34,24 @@ func (t Ticks) Ticks(lo, hi float64) []plot.Tick {
 	if hi == lo {
 		return []plot.Tick{{Value: lo, Label: formatTick(lo, niceStep(math.Abs(lo)/2), math.Abs(lo))}}
 	}
-	// The smallest nice step that gives at most n labels.
+	// The smallest nice step that gives at most n labels; if that leaves fewer than three,
+	// the next smaller step when it gives at most n+1 (and MaxLabels).
+	count := func(step float64) (float64, float64, int) {
+		a, b := math.Ceil(lo/step-1e-9), math.Floor(hi/step+1e-9)
+		return a, b, int(b - a + 1)
+	}
 	step := niceStep((hi - lo) / float64(4*n))
-	var first, last float64
-	for {
-		first, last = math.Ceil(lo/step-1e-9), math.Floor(hi/step+1e-9)
-		if last-first+1 <= float64(n) {
-			break
-		}
+	prev := 0.0
+	first, last, k := count(step)
+	for k > n {
+		prev = step
 		step = niceStep(step * 1.01)
+		first, last, k = count(step)
+	}
+	if k < 3 && prev > 0 {
+		if a, b, kp := count(prev); kp <= min(n+1, MaxLabels) {
+			step, first, last = prev, a, b
+		}
 	}
 	span := math.Max(math.Abs(lo), math.Abs(hi))
 	ticks := make([]plot.Tick, 0, int(last-first)+1)
@@ -53,14 +62,14 @@ func (t Ticks) Ticks(lo, hi float64) []plot.Tick {
 	return ticks
 }
 
-// niceStep is the smallest of 1, 2, 5 × 10^k not below raw.
+// niceStep is the smallest of 1, 2, 2.5, 5 × 10^k not below raw.
 func niceStep(raw float64) float64 {
 	if !(raw > 0) || math.IsInf(raw, 0) {
 		return 1
 	}
 	e := math.Floor(math.Log10(raw))
 	p := math.Pow(10, e)
-	for _, m := range []float64{1, 2, 5, 10} {
+	for _, m := range []float64{1, 2, 2.5, 5, 10} {
 		if m*p >= raw*(1-1e-9) {
 			return m * p
 		}
@@ -74,7 +83,7 @@ func formatTick(v, step, span float64) string {
 	if v == 0 || math.Abs(v) < step*1e-6 {
 		return "0"
 	}
-	se := int(math.Floor(math.Log10(step) + 1e-9))
+	se := -decimals(step)
 	if span >= 1e6 || span < 1e-3 {
 		e := int(math.Floor(math.Log10(math.Abs(v)) + 1e-9))
 		if span >= 1e6 {
@@ -85,6 +94,17 @@ func formatTick(v, step, span float64) string {
 		return m + "e" + strconv.Itoa(e)
 	}
 	return trimZeros(strconv.FormatFloat(v, 'f', max(0, -se), 64))
+}
+
+// decimals is the number of decimals that writes step exactly (0.25 → 2, 50 → 0).
+func decimals(step float64) int {
+	for d := -20; d < 20; d++ {
+		v := step * math.Pow(10, float64(d))
+		if math.Abs(v-math.Round(v)) < 1e-6*v {
+			return d
+		}
+	}
+	return 20
 }
 
 // trimZeros drops trailing zeros after a decimal point, and the point itself: "1.50" → "1.5",

@@ -182,7 +182,7 @@ func thinTicks(p *plot.Plot, data draw.Canvas) {
 		p.X.Tick.Marker = Ticks{N: min(7, max(3, int(w/(0.75*vg.Inch))))}
 	}
 	if t, ok := p.Y.Tick.Marker.(Ticks); ok && t.N == 0 {
-		p.Y.Tick.Marker = Ticks{N: min(7, max(3, int(h/(0.5*vg.Inch))))}
+		p.Y.Tick.Marker = Ticks{N: min(7, max(3, int(h/(0.4*vg.Inch))))}
 	}
 }
 
