@@ -106,6 +106,7 @@ func LagPlots(c *embed.LagChoice, f Record) ([][]*plot.Plot, error) {
 		HLine(top, c.MI.Bias/math.Ln2, Guide(), "independence bias (B−1)²/2N")
 	}
 	VLine(top, float64(c.Lag), Mark(), "chosen lag "+f.lagText(c.Lag)+" ("+c.Method+")", false)
+	padAxis(&top.Y, 0.04)
 	top.Y.Min = 0
 
 	bot := New("", xlabel, "autocorrelation r(τ)")
@@ -141,6 +142,7 @@ func DimPlots(c *embed.DimChoice, f Record) ([][]*plot.Plot, error) {
 		return nil, err
 	}
 	HLine(top, 100*c.Threshold, Guide(), fmt.Sprintf("threshold %g %%", 100*c.Threshold))
+	padAxis(&top.Y, 0.04)
 	top.Y.Min = 0
 	bot := New("", "embedding dimension m (d for Cao's E1, E2)", "E1(d), E2(d) [ratio, no unit]")
 	ds := make([]float64, len(c.Cao))
@@ -183,10 +185,18 @@ func STPPlot(s *embed.STP, e embed.Embedding, theiler int, f Record) (*plot.Plot
 	for i, d := range s.Dt {
 		dts[i] = float64(d)
 	}
+	// Each contour is labelled at its right end (a legend of six contours would take half
+	// the figure); the title says what the percentages are.
+	p.Title.Text += "; each curve: the distance that the given % of pairs fall within"
 	for i, fr := range s.Fractions {
 		col := Color(i)
-		if err := AddCurve(p, dts, s.Dist[i], col, fmt.Sprintf("%g %% of pairs closer", 100*fr), false); err != nil {
+		if err := AddCurve(p, dts, s.Dist[i], col, "", false); err != nil {
 			return nil, err
+		}
+		if k := lastFinite(dts, s.Dist[i]); k >= 0 {
+			if err := Labels(p, []float64{dts[k]}, []float64{s.Dist[i][k]}, []string{fmt.Sprintf(" %g %%", 100*fr)}, col); err != nil {
+				return nil, err
+			}
 		}
 	}
 	if theiler > 0 {
@@ -195,6 +205,16 @@ func STPPlot(s *embed.STP, e embed.Embedding, theiler int, f Record) (*plot.Plot
 	p.Y.Min = 0
 	p.X.Min = 0
 	return p, nil
+}
+
+// lastFinite is the last index where both xs and ys are finite, -1 when there is none.
+func lastFinite(xs, ys []float64) int {
+	for k := min(len(xs), len(ys)) - 1; k >= 0; k-- {
+		if isFinite(xs[k]) && isFinite(ys[k]) {
+			return k
+		}
+	}
+	return -1
 }
 
 // StateSpaceOptions choose how the state-space picture is drawn.
@@ -279,7 +299,7 @@ func project(a, b, c, az, el float64) (float64, float64) {
 func addAxesTriad(p *plot.Plot, px, py []float64, az, el float64, sig string) {
 	x0, x1 := minOf(px), maxOf(px)
 	y0, y1 := minOf(py), maxOf(py)
-	size := 0.12 * math.Max(x1-x0, y1-y0)
+	size := 0.18 * math.Max(x1-x0, y1-y0)
 	ox, oy := x0+0.08*(x1-x0), y0-0.02*(y1-y0)
 	names := []string{sig + "(t)", sig + "(t+τ)", sig + "(t+2τ)"}
 	dirs := [][3]float64{{1, 0, 0}, {0, 1, 0}, {0, 0, 1}}
@@ -297,7 +317,7 @@ func addAxesTriad(p *plot.Plot, px, py []float64, az, el float64, sig string) {
 		l.Color = Mark()
 		l.Width = vg.Points(1.5)
 		p.Add(l)
-		labels.XYs = append(labels.XYs, plotter.XY{X: ox + 1.15*size*hx, Y: oy + 1.15*size*hy})
+		labels.XYs = append(labels.XYs, plotter.XY{X: ox + 1.3*size*hx, Y: oy + 1.3*size*hy})
 		labels.Labels = append(labels.Labels, names[k])
 	}
 	if len(labels.Labels) > 0 {

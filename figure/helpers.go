@@ -179,7 +179,8 @@ func Shade(p *plot.Plot, x0, x1, y0, y1 float64, c color.Color, legend string) e
 	return nil
 }
 
-// Labels writes short texts at data points in colour c, at MinTextSize in the project's face.
+// Labels writes short texts at data points in colour c, at MinTextSize in the project's face,
+// starting at the point and centred on it vertically.
 func Labels(p *plot.Plot, xs, ys []float64, texts []string, c color.Color) error {
 	n := min(len(xs), len(ys), len(texts))
 	var l plotter.XYLabels
@@ -199,6 +200,7 @@ func Labels(p *plot.Plot, xs, ys []float64, texts []string, c color.Color) error
 	for i := range lb.TextStyle {
 		lb.TextStyle[i].Color = c
 		lb.TextStyle[i].Font = Font(MinTextSize)
+		lb.TextStyle[i].YAlign = draw.YCenter
 	}
 	p.Add(lb)
 	return nil
