@@ -268,3 +268,49 @@ func TestWriteStyle(t *testing.T) {
 func drawCanvas() draw.Canvas {
 	return draw.New(vgimg.New(Width, Height))
 }
+
+// TestLegendAboveData checks that Write draws the legend above the data area: every legend
+// text sits higher on the page than every tick label (the highest y tick marks the top of the
+// data area), and below the title.
+func TestLegendAboveData(t *testing.T) {
+	p := New("the title", "x", "y")
+	if err := AddCurve(p, []float64{0, 1, 2, 3}, []float64{1, 4, 2, 3}, Main(), "first legend entry", true); err != nil {
+		t.Fatal(err)
+	}
+	HLine(p, 2.5, Guide(), "second legend entry")
+	var buf bytes.Buffer
+	if err := Write(&buf, "svg", Width, Height, [][]*plot.Plot{{p}}); err != nil {
+		t.Fatal(err)
+	}
+	// vgsvg writes <text x=".." y="-Y" transform="scale(1, -1)"> inside a flipped group, so Y
+	// is the height above the bottom of the canvas.
+	re := regexp.MustCompile(`<text x="[-0-9.e]+" y="(-?[0-9.e+-]+)"[^>]*>([^<]*)</text>`)
+	var legend, ticks []float64
+	title := math.NaN()
+	for _, m := range re.FindAllStringSubmatch(buf.String(), -1) {
+		y, err := strconv.ParseFloat(m[1], 64)
+		if err != nil {
+			t.Fatal(err)
+		}
+		y = -y
+		switch {
+		case strings.Contains(m[2], "legend entry"):
+			legend = append(legend, y)
+		case m[2] == "the title":
+			title = y
+		default:
+			if _, err := strconv.ParseFloat(m[2], 64); err == nil {
+				ticks = append(ticks, y)
+			}
+		}
+	}
+	if len(legend) != 2 || len(ticks) < 4 || math.IsNaN(title) {
+		t.Fatalf("found %d legend texts, %d tick labels, title at %g", len(legend), len(ticks), title)
+	}
+	top := maxOf(ticks)
+	for _, y := range legend {
+		if y <= top+MinTextSize.Points()/2 || y >= title {
+			t.Errorf("legend text at %.1f pt: want it above the data (highest tick label at %.1f) and below the title (%.1f)", y, top, title)
+		}
+	}
+}

@@ -68,6 +68,8 @@ func Write(w io.Writer, format string, width, height vg.Length, rows [][]*plot.P
 	tiles := draw.Tiles{Rows: len(rows), Cols: len(rows[0]), PadTop: vg.Millimeter * 2, PadBottom: vg.Millimeter * 2,
 		PadLeft: vg.Millimeter * 2, PadRight: vg.Millimeter * 4, PadX: vg.Millimeter * 7, PadY: vg.Millimeter * 5}
 	tileW := (width - tiles.PadLeft - tiles.PadRight - vg.Length(tiles.Cols-1)*tiles.PadX) / vg.Length(tiles.Cols)
+	tileH := (height - tiles.PadTop - tiles.PadBottom - vg.Length(tiles.Rows-1)*tiles.PadY) / vg.Length(tiles.Rows)
+	tile := draw.Canvas{Rectangle: vg.Rectangle{Max: vg.Point{X: tileW, Y: tileH}}}
 	legends := make([][]legendSpot, len(rows))
 	for i, r := range rows {
 		legends[i] = make([]legendSpot, len(r))
@@ -80,6 +82,7 @@ func Write(w io.Writer, format string, width, height vg.Length, rows [][]*plot.P
 			Restyle(p)
 			p.Title.Text = wrap(p.Title.TextStyle, p.Title.Text, tileW)
 			legends[i][j] = liftLegend(p)
+			thinTicks(p, p.DataCanvas(tile))
 		}
 	}
 	dc := draw.New(c)
@@ -90,7 +93,6 @@ func Write(w io.Writer, format string, width, height vg.Length, rows [][]*plot.P
 				continue
 			}
 			tc := canvases[i][j]
-			thinTicks(p, p.DataCanvas(tc))
 			if isSquare(p) {
 				tc = squareTile(p, tc)
 			}
