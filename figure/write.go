@@ -24,10 +24,13 @@ const fontFamilies = `'Liberation Sans',Arial,Helvetica,sans-serif`
 
 // Write draws the plots as a grid (rows of equal length; a nil plot leaves its tile empty) on
 // a width × height canvas and writes it to w as "svg" or "png" (PNGDPI). Every plot is drawn
-// in the project's style (Restyle); each plot's legend is drawn above its data area, below its
-// title, never over the data; a plot whose two axes have the same linear range (SquareAxes)
-// gets a square data area. The SVG has width and height attributes and a viewBox, so that it
-// scales with CSS (width: 100%; height: auto). The plots are left as they were given.
+// in the project's style (Restyle is applied and stays); titles wider than their panel are
+// broken at spaces; linear axes with the default Ticks get fewer labels on narrow panels;
+// each plot's legend is drawn above its data area, below its title, never over the data; a
+// plot whose two axes have the same linear range (SquareAxes) gets a square data area. Apart
+// from Restyle, the plots are given back as they came (title, legend, ranges, tick markers).
+// The SVG has width and height attributes and a viewBox, so that it scales with CSS
+// (width: 100%; height: auto), and names a sans-serif fallback after Liberation Sans.
 // Drawing errors (gonum/plot panics on, for example, a non-positive value on a log axis) are
 // returned as errors.
 func Write(w io.Writer, format string, width, height vg.Length, rows [][]*plot.Plot) (err error) {
