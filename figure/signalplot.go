@@ -54,9 +54,7 @@ func SignalPlots(signal, unit, timeUnit string, x []float64, dt float64, maxShow
 	p1.X.Min, p1.X.Max = 0, float64(max(n-1, 1))*dt
 	padAxis(&p1.Y, 0.03)
 
-	// A short power label: gonum/plot places the label's layout box of a log axis at the
-	// arithmetic mean of the range, near the top, and a long label would push the data down.
-	p2 := New("power spectrum (Welch, Hann window; log scale)", "frequency [cycles per "+singular(timeUnit)+"]", "power")
+	p2 := New("power spectrum (Welch, Hann window)", "frequency [cycles per "+singular(timeUnit)+"]", "power [log scale]")
 	f, pw := welch(x, dt)
 	var fs, ps []float64
 	for k := 1; k < len(f); k++ {

@@ -314,3 +314,33 @@ func TestLegendAboveData(t *testing.T) {
 		}
 	}
 }
+
+// TestLogAxisLabelLayout checks the layout of a log axis with a long centred label: the data
+// area reaches as high as without the label (gonum/plot alone reserved room for the label near
+// the top of a log axis), and Write gives the log scale back.
+func TestLogAxisLabelLayout(t *testing.T) {
+	mk := func(label string) *plot.Plot {
+		p := New("", "x", label)
+		LogAxis(&p.Y)
+		if err := AddCurve(p, []float64{1, 2, 3}, []float64{1e-2, 1, 8e4}, Main(), "", false); err != nil {
+			t.Fatal(err)
+		}
+		return p
+	}
+	long, none := mk("a long label on the power axis [V² s]"), mk("")
+	c := drawCanvas()
+	centreLogLabels(long)
+	if a, b := long.DataCanvas(c).Max.Y, none.DataCanvas(c).Max.Y; math.Abs(float64(a-b)) > 1 {
+		t.Errorf("data area top at %.1f pt with the label, %.1f without", a, b)
+	}
+	p := mk("a long label on the power axis [V² s]")
+	if err := Write(io.Discard, "svg", Width, Height, [][]*plot.Plot{{p}}); err != nil {
+		t.Fatal(err)
+	}
+	if _, ok := p.Y.Scale.(plot.LogScale); !ok {
+		t.Errorf("scale %T after Write, want plot.LogScale", p.Y.Scale)
+	}
+	if v := (layoutLogScale{}).Normalize(1, 100, 10); math.Abs(v-0.5) > 1e-12 {
+		t.Errorf("layoutLogScale(1, 100, 10) = %g, want 0.5 (a log scale)", v)
+	}
+}

@@ -86,6 +86,7 @@ func Write(w io.Writer, format string, width, height vg.Length, rows [][]*plot.P
 			p.Title.Text = wrap(p.Title.TextStyle, p.Title.Text, tileW)
 			legends[i][j] = liftLegend(p)
 			thinTicks(p, p.DataCanvas(tile))
+			centreLogLabels(p)
 		}
 	}
 	dc := draw.New(c)
@@ -127,19 +128,21 @@ type saved struct {
 	padding    vg.Length
 	legend     plot.Legend
 	xt, yt     plot.Ticker
+	xs, ys     plot.Normalizer
 	xMin, xMax float64
 	yMin, yMax float64
 }
 
 func save(p *plot.Plot) *saved {
 	return &saved{p: p, title: p.Title.Text, padding: p.Title.Padding, legend: p.Legend,
-		xt: p.X.Tick.Marker, yt: p.Y.Tick.Marker, xMin: p.X.Min, xMax: p.X.Max, yMin: p.Y.Min, yMax: p.Y.Max}
+		xt: p.X.Tick.Marker, yt: p.Y.Tick.Marker, xs: p.X.Scale, ys: p.Y.Scale, xMin: p.X.Min, xMax: p.X.Max, yMin: p.Y.Min, yMax: p.Y.Max}
 }
 
 func (s *saved) restore() {
 	p := s.p
 	p.Title.Text, p.Title.Padding, p.Legend = s.title, s.padding, s.legend
 	p.X.Tick.Marker, p.Y.Tick.Marker = s.xt, s.yt
+	p.X.Scale, p.Y.Scale = s.xs, s.ys
 	p.X.Min, p.X.Max, p.Y.Min, p.Y.Max = s.xMin, s.xMax, s.yMin, s.yMax
 }
 
@@ -215,6 +218,29 @@ func wrap(st text.Style, s string, width vg.Length) string {
 		out = append(out, cur)
 	}
 	return strings.Join(out, "\n")
+}
+
+// layoutLogScale is plot.LogScale except at the arithmetic midpoint of the range, where it
+// gives 0.5. gonum/plot (v0.17) reserves room for a centred axis label around
+// Norm((min+max)/2), which on a log axis lies near the end of the axis, so a label drawn at
+// the centre shrank the data area; data never sit exactly at that midpoint of a padded range.
+type layoutLogScale struct{}
+
+// Normalize implements plot.Normalizer.
+func (layoutLogScale) Normalize(lo, hi, x float64) float64 {
+	if x == 0.5*(lo+hi) {
+		return 0.5
+	}
+	return plot.LogScale{}.Normalize(lo, hi, x)
+}
+
+// centreLogLabels puts layoutLogScale on the log axes of p that carry a centred label.
+func centreLogLabels(p *plot.Plot) {
+	for _, a := range []*plot.Axis{&p.X, &p.Y} {
+		if _, ok := a.Scale.(plot.LogScale); ok && a.Label.Text != "" && a.Label.Position == draw.PosCenter {
+			a.Scale = layoutLogScale{}
+		}
+	}
 }
 
 // squareTile narrows (or shortens) the tile so that the plot's data area is square.
