@@ -17,7 +17,6 @@ import (
 
 	"unfold/analysis"
 	"unfold/dimension"
-	"unfold/lyapunov"
 	"unfold/regime"
 )
 
@@ -78,17 +77,13 @@ func Slopes(r *dimension.Result, title string) (*plot.Plot, error) {
 	return p, nil
 }
 
-// Palette returns a distinguishable colour for curve i.
-func Palette(i int) color.Color {
-	cols := []color.RGBA{{31, 119, 180, 255}, {214, 39, 40, 255}, {44, 160, 44, 255}, {148, 103, 189, 255},
-		{255, 127, 14, 255}, {140, 86, 75, 255}, {227, 119, 194, 255}, {23, 190, 207, 255}, {127, 127, 127, 255}, {188, 189, 34, 255}}
-	return cols[i%len(cols)]
-}
+// Palette returns a distinguishable colour for curve i: the project's palette (Color).
+func Palette(i int) color.Color { return Color(i) }
 
 // Lyapunov draws the divergence curves with the fit range shaded and the fitted line.
 func Lyapunov(run *analysis.LyapunovRun, name string) (*plot.Plot, error) {
 	r := run.R
-	p, err := lyapunov.DivergencePlot(r, fmt.Sprintf("%s: divergence (%s, m = %d, τ = %d, Theiler %d)", name, run.Method, r.Dim, r.Lag, r.Theiler))
+	p, err := DivergencePlot(r, fmt.Sprintf("%s: divergence (%s, m = %d, τ = %d, Theiler %d)", name, run.Method, r.Dim, r.Lag, r.Theiler), "")
 	if err != nil {
 		return nil, fmt.Errorf("lyapunov: figure: %w", err)
 	}

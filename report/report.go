@@ -22,7 +22,7 @@ import (
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/vg"
 
-	"unfold/embed"
+	"unfold/figure"
 	"unfold/series"
 )
 
@@ -155,7 +155,7 @@ func Run(h Header, stages []Stage, before func(key string), after func(key strin
 			for i := range sec.Figures {
 				f := &sec.Figures[i]
 				var b bytes.Buffer
-				if ferr := embed.WriteFigure(&b, "svg", f.Width, f.Height, f.Rows); ferr != nil {
+				if ferr := figure.Write(&b, "svg", f.Width, f.Height, f.Rows); ferr != nil {
 					if err == nil {
 						err = fmt.Errorf("%s: figure %s: %w", st.Key, f.Name, ferr)
 					}
@@ -277,7 +277,7 @@ func (r *Result) WriteDir(dir string, opt WriteOptions) ([]string, error) {
 			}
 			if opt.PNG {
 				var p bytes.Buffer
-				if err := embed.WriteFigure(&p, "png", fg.Width, fg.Height, fg.Rows); err != nil {
+				if err := figure.Write(&p, "png", fg.Width, fg.Height, fg.Rows); err != nil {
 					return written, fmt.Errorf("report: figure %s: %w", fg.Name, err)
 				}
 				if err := write(filepath.Join(figDir, fg.Name+".png"), p.Bytes()); err != nil {

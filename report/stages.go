@@ -13,7 +13,6 @@ import (
 	"gonum.org/v1/plot/vg"
 
 	"unfold/analysis"
-	"unfold/embed"
 	"unfold/figure"
 	"unfold/regime"
 	"unfold/series"
@@ -28,7 +27,7 @@ type View struct {
 
 // Build renders res (the chain on s, analysis.Run) as the page's sections and returns the
 // report: Run over Stages, each stage's wall time the chain's plus its drawing.
-func Build(h Header, res *analysis.Result, s *series.Series, fig embed.Figure, view View) *Result {
+func Build(h Header, res *analysis.Result, s *series.Series, fig figure.Record, view View) *Result {
 	return Run(h, Stages(res, s, fig, view), nil, nil)
 }
 
@@ -58,7 +57,7 @@ func stageTime(res *analysis.Result, key string) time.Duration {
 
 // reportStages renders the stages of res as the page's sections: each stage's JSON object is
 // what its single command prints with --json.
-func Stages(res *analysis.Result, s *series.Series, fig embed.Figure, view View) []Stage {
+func Stages(res *analysis.Result, s *series.Series, fig figure.Record, view View) []Stage {
 	stages := []Stage{
 		{Key: "inspect", Title: "The signal", Run: func() (*Section, error) {
 			if res.Inspect == nil {
@@ -100,7 +99,7 @@ func Stages(res *analysis.Result, s *series.Series, fig embed.Figure, view View)
 			if err != nil {
 				return nil, err
 			}
-			rows, err := embed.LagPlots(c, fig)
+			rows, err := figure.LagPlots(c, fig)
 			if err != nil {
 				return nil, fmt.Errorf("lag: figure: %w", err)
 			}
@@ -127,7 +126,7 @@ func Stages(res *analysis.Result, s *series.Series, fig embed.Figure, view View)
 			if err != nil {
 				return nil, err
 			}
-			rows, err := embed.DimPlots(c, fig)
+			rows, err := figure.DimPlots(c, fig)
 			if err != nil {
 				return nil, fmt.Errorf("dim: figure: %w", err)
 			}
@@ -154,7 +153,7 @@ func Stages(res *analysis.Result, s *series.Series, fig embed.Figure, view View)
 			if err != nil {
 				return nil, err
 			}
-			rows, err := embed.StateSpacePlots(e, fig, embed.StateSpaceOptions{Azimuth: view.Azimuth, Elevation: view.Elevation, DensityAbove: 3000, Bins: 140})
+			rows, err := figure.StateSpacePlots(e, fig, figure.StateSpaceOptions{Azimuth: view.Azimuth, Elevation: view.Elevation, DensityAbove: 3000, Bins: 140})
 			if err != nil {
 				return nil, fmt.Errorf("embed: figure: %w", err)
 			}

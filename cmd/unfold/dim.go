@@ -7,10 +7,9 @@ import (
 
 	"github.com/spf13/cobra"
 	"github.com/spf13/pflag"
-	"gonum.org/v1/plot/vg"
 
 	"unfold/analysis"
-	"unfold/embed"
+	"unfold/figure"
 	"unfold/neighbors"
 )
 
@@ -122,11 +121,11 @@ func (a *app) runDim(path string, o *dimOptions) error {
 		}
 	}
 	if o.plot != "" {
-		rows, err := embed.DimPlots(c, figureOf(path, s))
+		rows, err := figure.DimPlots(c, figureOf(path, s))
 		if err != nil {
 			return fmt.Errorf("dim: figure: %w", err)
 		}
-		if err := writeFigureFile(o.plot, path, 9*vg.Inch, 7.5*vg.Inch, rows); err != nil {
+		if err := writeFigureFile(o.plot, path, figure.Width, figure.HeightFor(len(rows)), rows); err != nil {
 			return err
 		}
 	}

@@ -13,6 +13,7 @@ import (
 
 	"unfold/analysis"
 	"unfold/embed"
+	"unfold/figure"
 )
 
 type embedOptions struct {
@@ -117,7 +118,7 @@ func (a *app) runEmbed(path string, o *embedOptions) error {
 		}
 	}
 	if o.plot != "" {
-		rows, err := embed.StateSpacePlots(e, fig, embed.StateSpaceOptions{Azimuth: o.azimuth, Elevation: o.elevation, DensityAbove: o.densityAbove})
+		rows, err := figure.StateSpacePlots(e, fig, figure.StateSpaceOptions{Azimuth: o.azimuth, Elevation: o.elevation, DensityAbove: o.densityAbove})
 		if err != nil {
 			return fmt.Errorf("embed: figure: %w", err)
 		}
@@ -138,7 +139,7 @@ func (a *app) runEmbed(path string, o *embedOptions) error {
 		if err != nil {
 			return noAnswer(fmt.Errorf("embed: %s: %w", path, err))
 		}
-		p, err := embed.STPPlot(st, e, theiler, fig)
+		p, err := figure.STPPlot(st, e, theiler, fig)
 		if err != nil {
 			return fmt.Errorf("embed: figure: %w", err)
 		}

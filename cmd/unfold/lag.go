@@ -10,6 +10,7 @@ import (
 
 	"unfold/analysis"
 	"unfold/embed"
+	"unfold/figure"
 	"unfold/series"
 )
 
@@ -118,7 +119,7 @@ func (a *app) runLag(path string, o *lagOptions) error {
 		}
 	}
 	if o.plot != "" {
-		rows, err := embed.LagPlots(c, figureOf(path, s))
+		rows, err := figure.LagPlots(c, figureOf(path, s))
 		if err != nil {
 			return fmt.Errorf("lag: figure: %w", err)
 		}

@@ -14,6 +14,7 @@ import (
 	"gonum.org/v1/plot/vg"
 
 	"unfold/embed"
+	"unfold/figure"
 	"unfold/series"
 )
 
@@ -21,12 +22,12 @@ import (
 // name formatting.
 
 // figureOf describes the record for the figure titles and axis labels.
-func figureOf(path string, s *series.Series) embed.Figure {
+func figureOf(path string, s *series.Series) figure.Record {
 	title := filepath.Base(path)
 	if path == "-" {
 		title = "standard input"
 	}
-	return embed.Figure{Title: title, Signal: s.Name, Unit: s.Unit, Dt: s.Dt, TimeUnit: "time units"}
+	return figure.Record{Title: title, Signal: s.Name, Unit: s.Unit, Dt: s.Dt, TimeUnit: "time units"}
 }
 
 // checkFigurePath accepts "" or a name ending in .png or .svg.
@@ -44,7 +45,7 @@ func checkFigurePath(p string) error {
 // writeFigureFile draws rows into path (format from the extension) through an atomic file.
 func writeFigureFile(path, input string, w, h vg.Length, rows [][]*plot.Plot) error {
 	var buf bytes.Buffer
-	if err := embed.WriteFigure(&buf, strings.TrimPrefix(strings.ToLower(filepath.Ext(path)), "."), w, h, rows); err != nil {
+	if err := figure.Write(&buf, strings.TrimPrefix(strings.ToLower(filepath.Ext(path)), "."), w, h, rows); err != nil {
 		return err
 	}
 	return writeBytesFile(path, input, buf.Bytes())
