@@ -288,6 +288,14 @@ func Decide(ev *Evidence) *Verdict {
 
 	// The decision rule (package comment).
 	chaosEvidence := predRej && lyapChaos
+	// Lines that explain most of the variance yield only to a firm exponent: a mean growth
+	// rate without a stable exponential stretch is also what a phase-diffusing oscillation
+	// gives.
+	firmChaos := chaosEvidence && !ev.Lyapunov.Unsure
+	// A saturated D2 near 1 on an oversampled record is a closed curve: a noisy limit cycle.
+	// A chaotic flow needs D2 > 2 (judgement: below 1.5 the cycle is not in doubt). Maps
+	// (lag 1) are exempt: the logistic map's chaotic attractor has D2 ≈ 1.
+	cycleD2 := ev.Lag > 1 && ev.Dimension != nil && ev.Dimension.Saturated && ev.Dimension.D2 < 1.5
 	cycle := ""
 	if v.DominantPeriod > 0 {
 		cycle = fmt.Sprintf("; dominant cycle: period %.4g time units", v.DominantPeriod)
@@ -296,9 +304,9 @@ func Decide(ev *Evidence) *Verdict {
 		}
 	}
 	switch {
-	case (lineKind == LinesPeriodic || lineKind == LinesQuasiperiodic) && lineFrac >= MinLineFraction && !chaosEvidence:
+	case (lineKind == LinesPeriodic || lineKind == LinesQuasiperiodic) && lineFrac >= MinLineFraction && !firmChaos:
 		v.Regime = string(lineKind)
-		v.Rule = fmt.Sprintf("1: lines explained by %s carry %.0f %% of the variance (at least %.0f %%), and the chaos evidence (rejected null with an exponential divergence) is absent",
+		v.Rule = fmt.Sprintf("1: lines explained by %s carry %.0f %% of the variance (at least %.0f %%), and no firm chaos evidence (rejected null with a stable exponential divergence) contradicts",
 			map[bool]string{true: "one fundamental", false: "incommensurate fundamentals"}[lineKind == LinesPeriodic], 100*lineFrac, 100*MinLineFraction)
 	case !tested:
 		v.Regime = Undetermined
@@ -313,6 +321,9 @@ func Decide(ev *Evidence) *Verdict {
 	case drift:
 		v.Regime = Undetermined
 		v.Rule = "3: the null is rejected, but the spectrum changes between the first and last thirds: non-stationarity alone rejects stationary surrogates" + cycle
+	case chaosEvidence && cycleD2:
+		v.Regime = Undetermined
+		v.Rule = fmt.Sprintf("3: the null is rejected and λ1 > 0, but D2 saturates at %.2f: a closed curve, as for a noisy or phase-diffusing limit cycle; a chaotic flow needs D2 > 2", ev.Dimension.D2) + cycle
 	case chaosEvidence:
 		v.Regime = Chaotic
 		v.Rule = "3: the nonlinear prediction beats the surrogates and λ1 > 0 with an exponential range of the divergence"
