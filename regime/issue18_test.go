@@ -62,21 +62,21 @@ func TestVerdictModels(t *testing.T) {
 		// r = 1 + √8 is the exact start of the period-3 window (the tangent bifurcation; e.g.
 		// Strogatz 1994, "Nonlinear Dynamics and Chaos", §10.4): period 3.
 		{"logistic 1+√8", func() []float64 {
-			return simulate(t, "logistic", "x", models.Values{"r": {1 + math.Sqrt(8)}}, 3000, 0, 1)
+			return simulate(t, "logistic", "x", models.Values{"r": {1 + math.Sqrt(8)}}, 2000, 0, 1)
 		}, 1, func(v *Verdict) bool { return v.Regime == Periodic }, Periodic},
 		// A linear chirp: deterministic and predictable but not chaotic; its spectrum moves
 		// (the non-stationarity caution must fire). Analytical fact of the signal.
-		{"chirp", func() []float64 { return chirp(3000, 0.01, 0.1) }, 1, func(v *Verdict) bool {
+		{"chirp", func() []float64 { return chirp(2000, 0.01, 0.1) }, 1, func(v *Verdict) bool {
 			return v.Regime != Chaotic && hasCaution(v, "non-stationary spectrum")
 		}, "not chaotic, with a spectral-drift caution"},
 		// A sine whose phase diffuses (σ = 0.05 rad per sample): a noisy limit cycle, not chaos
 		// (common practice: phase diffusion gives K ≈ 1 in the 0-1 test without chaos).
-		{"phase diffusion", func() []float64 { return phaseDiffusion(3000, 0.03, 0.05, 1) }, 1,
+		{"phase diffusion", func() []float64 { return phaseDiffusion(2000, 0.03, 0.05, 1) }, 1,
 			func(v *Verdict) bool { return v.Regime != Chaotic }, "not chaotic"},
 		// 1/f noise: stochastic, though it can show a finite correlation dimension (Osborne &
 		// Provenzale 1989, "Finite correlation dimension for stochastic systems with power-law
 		// spectra", Physica D 35, 357).
-		{"1/f noise", func() []float64 { return powerLaw(4096, 1, 1) }, 1,
+		{"1/f noise", func() []float64 { return powerLaw(2048, 1, 1) }, 1,
 			func(v *Verdict) bool { return v.Regime == Stochastic }, Stochastic},
 		// Lorenz (1963) with 10 % and 20 % measurement noise: chaotic (λ1 ≈ 0.9, CHECKS.md §2);
 		// with noise "chaotic" or "undetermined" is defensible, "periodic" never.
@@ -151,5 +151,56 @@ func TestVerdictRecords(t *testing.T) {
 				}
 			}
 		})
+	}
+}
+
+// TestDecideIssue18 exercises the rules of issue 18 on hand-made evidence (package comment).
+func TestDecideIssue18(t *testing.T) {
+	surr := func(k int) []float64 {
+		s := make([]float64, k)
+		for i := range s {
+			s[i] = 1 + 0.001*float64(i)
+		}
+		return s
+	}
+	broadband := &Lines{Kind: LinesBroadband}
+	lyap := &Exponent{Value: 0.5, Lo: 0.4, Hi: 0.6}
+	// A clear rank result is not overruled by an effect-size rule: the data below all 19
+	// surrogates (p = 0.05) at only 1 σ still reject (the logistic map at r = 3.57 used to be
+	// called stochastic by a 3σ rule).
+	rej := &RankTest{Data: 0.9, Surrogates: surr(19), P: 0.05, Sigmas: 1}
+	v := Decide(&Evidence{N: 5000, Dt: 1, Lag: 1, Stationary: true, Lines: broadband, Prediction: rej, Lyapunov: lyap})
+	if v.Regime != Chaotic {
+		t.Errorf("rank rejects at 1 σ with λ1 > 0: %s (%s), want chaotic", v.Regime, v.Rule)
+	}
+	// Too few surrogates for the level (9 < 19 at 5 %, Theiler & Prichard 1996): the test is
+	// unused and the regime undetermined.
+	few := &RankTest{Data: 0.9, Surrogates: surr(9), P: 0.1, Sigmas: 5}
+	v = Decide(&Evidence{N: 5000, Dt: 1, Lag: 1, Stationary: true, Lines: broadband, Prediction: few, Lyapunov: lyap})
+	if v.Regime != Undetermined || v.Evidence["prediction_error"].Used || len(v.Unused) == 0 {
+		t.Errorf("9 surrogates at 5 %%: %s, used %v, unused %q", v.Regime, v.Evidence["prediction_error"].Used, v.Unused)
+	}
+	if SurrogatesFor(0.05, Smaller) != 19 || SurrogatesFor(0.01, Smaller) != 99 || SurrogatesFor(0.05, TwoSided) != 39 {
+		t.Errorf("SurrogatesFor: %d %d %d, want 19 99 39", SurrogatesFor(0.05, Smaller), SurrogatesFor(0.01, Smaller), SurrogatesFor(0.05, TwoSided))
+	}
+	// A positive λ1 whose divergence is bounded is no evidence of chaos.
+	v = Decide(&Evidence{N: 5000, Dt: 1, Lag: 1, Stationary: true, Lines: broadband, Prediction: rej,
+		Lyapunov: &Exponent{Value: 0.5, Lo: 0.4, Hi: 0.6, Bounded: true, Why: "bounded"}})
+	if v.Regime == Chaotic {
+		t.Errorf("bounded divergence: %s, want not chaotic", v.Regime)
+	}
+	// Lines that explain 60 % of the variance: a noisy oscillation, not periodic; with the
+	// null not rejected it is stochastic with its dominant cycle (period 10) named.
+	noisyLines := &Lines{Kind: LinesPeriodic, LineFraction: 0.6, Fundamentals: []float64{0.1}, Peaks: []Peak{{Freq: 0.1}}}
+	notRej := &RankTest{Data: 1.01, Surrogates: surr(19), P: 0.6}
+	v = Decide(&Evidence{N: 5000, Dt: 1, Lag: 1, Stationary: true, Lines: noisyLines, Prediction: notRej})
+	if v.Regime != Stochastic || v.DominantPeriod != 10 || !strings.Contains(v.Rule, "period 10") {
+		t.Errorf("60 %% lines: %s, period %g, rule %q; want stochastic with period 10", v.Regime, v.DominantPeriod, v.Rule)
+	}
+	// A spectrum that moves between the thirds: the rejected null is not evidence of chaos.
+	v = Decide(&Evidence{N: 5000, Dt: 1, Lag: 1, Stationary: true, Lines: broadband, Prediction: rej, Lyapunov: lyap,
+		Drift: &Drift{Distance: 0.9, Noise: 0.1, Changed: true}})
+	if v.Regime == Chaotic || !hasCaution(v, "non-stationary spectrum") {
+		t.Errorf("spectral drift: %s, cautions %q", v.Regime, v.Cautions)
 	}
 }
