@@ -124,6 +124,19 @@ func TestVerdictRecords(t *testing.T) {
 		{"co2", "r/co2.csv", 1. / 12, 0, func(v *Verdict) bool {
 			return v.Regime != Chaotic && hasCaution(v, "non-stationary")
 		}, "not chaotic, with a non-stationarity caution"},
+		// Canadian lynx trappings, 114 years (help(lynx)): a ~10-year cycle with strongly
+		// nonlinear, asymmetric shape (threshold AR models since Tong, from memory); whether it
+		// is chaotic is not settled (from memory). A record this short must still get an
+		// answer (issue 18: records ≥ 48 samples), not "periodic" (the lines leave a third of
+		// the power broadband) and not "chaotic".
+		{"lynx", "r/lynx.csv", 1, 0, func(v *Verdict) bool {
+			return v.Regime != Periodic && v.Regime != Chaotic && v.DominantPeriod > 8 && v.DominantPeriod < 12
+		}, "neither periodic nor chaotic, with a dominant cycle of 8–12 years"},
+		// Luteinizing hormone, 48 samples every 10 minutes (help(lh)): the shortest record
+		// that must get an answer; too short for any deterministic claim (common practice).
+		{"lh", "r/lh.csv", 1, 0, func(v *Verdict) bool {
+			return v.Regime == Stochastic || v.Regime == Undetermined
+		}, "stochastic or undetermined"},
 		// The ECG: a noisy, oversampled quasi-periodic record; the literature does not
 		// establish chaos in a short ECG (from memory), so "chaotic" only with a rejected
 		// prediction test. The first 10 s keep the test fast.

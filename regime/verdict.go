@@ -80,6 +80,9 @@ type Evidence struct {
 	Stationary bool
 	// Drift compares the spectra of the first and last thirds (SpectralDrift).
 	Drift *Drift
+	// Skipped lists the tests that could not be computed, as "name: reason"; Decide lists
+	// them among the unused evidence.
+	Skipped []string
 	// Cautions collected while gathering the evidence.
 	Cautions []string
 }
@@ -282,6 +285,11 @@ func Decide(ev *Evidence) *Verdict {
 		add("cao_e2", it)
 	}
 	drift := ev.Drift != nil && ev.Drift.Changed
+	if d := ev.Drift; d != nil {
+		// Weight 0: the item gates step 3 but does not vote for a regime.
+		add("spectral_drift", Item{Value: d.Distance, Used: true, Detail: d.String(),
+			Why: "step 3: a spectrum that moves between the thirds lets non-stationarity alone reject the surrogates"})
+	}
 	if drift {
 		v.Cautions = append(v.Cautions, "non-stationary spectrum: "+ev.Drift.String()+"; a chirp, a drifting rhythm or a change of regime: surrogate tests and the exponent assume a stationary record")
 	}
@@ -368,6 +376,9 @@ func Decide(ev *Evidence) *Verdict {
 			v.Unused = append(v.Unused, name+": "+it.Why)
 		}
 	}
+	for _, s := range ev.Skipped {
+		v.Unused = append(v.Unused, s+" (not computed)")
+	}
 	if total > 0 && v.Regime != Undetermined {
 		v.Confidence = agree / total
 	}
@@ -453,13 +464,15 @@ type Analysis struct {
 	Surrogates *SurrogateSet
 }
 
-// Analyze gathers the evidence for x sampled every dt and decides the regime.
+// Analyze gathers the evidence for x sampled every dt and decides the regime. Records of 48
+// samples or more get an answer: a test the record is too short for is listed in
+// Evidence.Skipped (and among the verdict's unused evidence) with the reason.
 func Analyze(x []float64, dt float64, opt Options) (*Analysis, error) {
 	if dt <= 0 {
 		dt = 1
 	}
-	if len(x) < 256 {
-		return nil, fmt.Errorf("regime: %d samples: need at least 256", len(x))
+	if len(x) < 48 {
+		return nil, fmt.Errorf("regime: %d samples: need at least 48", len(x))
 	}
 	if err := series.CheckVariable(x); err != nil {
 		return nil, fmt.Errorf("regime: %w", err)
@@ -496,7 +509,9 @@ func Analyze(x []float64, dt float64, opt Options) (*Analysis, error) {
 		}
 	}
 	dc, err := embed.ChooseDimension(xa, embed.DimOptions{Lag: ev.Lag, Theiler: ev.Theiler, MaxDim: 8, Threads: threads})
-	if err == nil {
+	if err != nil {
+		ev.Skipped = append(ev.Skipped, "cao_e2: "+err.Error())
+	} else {
 		finite := 0
 		for _, c := range dc.Cao {
 			if !math.IsNaN(c.E2) && !math.IsInf(c.E2, 0) {
@@ -523,16 +538,23 @@ func Analyze(x []float64, dt float64, opt Options) (*Analysis, error) {
 		ev.Cautions = append(ev.Cautions, fmt.Sprintf("oversampled: the delay is %d samples; the 0-1 test used a subsampling step of %d samples as Gottwald & Melbourne (2009) advise", ev.Lag, sub))
 	}
 	// Spectrum and lines (whole record).
+	skip := func(name string, err error) { ev.Skipped = append(ev.Skipped, name+": "+err.Error()) }
 	if l, err := LineAnalysis(x, dt, LineOptions{}); err == nil {
 		ev.Lines = l
+	} else {
+		skip("lines", err)
 	}
 	// Spectra of the first and last thirds.
 	if d, err := SpectralDrift(x, dt); err == nil {
 		ev.Drift = d
+	} else {
+		skip("spectral_drift", err)
 	}
 	// 0-1 test, subsampled by the delay for flows.
 	if z, err := ZeroOne(x, ZeroOneOptions{Subsample: sub, Seed: opt.Seed}); err == nil {
 		ev.ZeroOne = z
+	} else {
+		skip("zero_one", err)
 	}
 	// Largest Lyapunov exponent.
 	if ev.Lyapunov == nil && !opt.NoLyapunov {
@@ -542,6 +564,8 @@ func Analyze(x []float64, dt float64, opt Options) (*Analysis, error) {
 			ev.Lyapunov = ExponentOf(r)
 		case r != nil && errors.Is(err, fit.ErrNoRange):
 			ev.Lyapunov = &Exponent{Value: math.NaN(), Lo: math.NaN(), Hi: math.NaN(), Bounded: true, Why: err.Error()}
+		case err != nil:
+			skip("lyapunov", err)
 		}
 	}
 	// Correlation dimension.
@@ -550,6 +574,8 @@ func Analyze(x []float64, dt float64, opt Options) (*Analysis, error) {
 	// Ruelle 1992), at a quarter of the pair-counting cost of 2·10⁴.
 	if d, err := dimension.CorrelationDimension(xa[:min(len(xa), 10000)], dimension.Options{Lag: ev.Lag, MaxDim: maxDim, Theiler: ev.Theiler, Seed: opt.Seed, Threads: threads}); err == nil {
 		ev.Dimension = d
+	} else {
+		skip("correlation_dimension", err)
 	}
 	// Surrogate tests.
 	set, err := Surrogates(xa, SurrogateOptions{Method: IAAFT, Count: opt.Surrogates, Seed: opt.Seed, Threads: threads})
