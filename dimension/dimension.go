@@ -322,7 +322,7 @@ func (r *Result) decide(n int) error {
 	// dimension (a trend, non-stationarity or too few pairs at small radii). It is never
 	// reported; D2 and its interval are capped at m, a lower bound, with a caution.
 	if m := float64(r.Dim); r.D2 > m {
-		r.Cautions = append(r.Cautions, fmt.Sprintf("the fitted slope %.2f exceeds the embedding dimension %d, which no correlation sum can do: no real scaling range (a trend, non-stationarity or too few points); D2 is reported as %d, a lower bound", r.D2, r.Dim, r.Dim))
+		r.Cautions = append(r.Cautions, fmt.Sprintf("the fitted slope exceeds the embedding dimension %d, which no correlation sum can do: no real scaling range (a trend, non-stationarity or too few points); D2 is reported as %d, a lower bound", r.Dim, r.Dim))
 		r.D2, r.Lo, r.Hi = m, math.Min(r.Lo, m), math.Min(r.Hi, m)
 	}
 	if !r.Saturated {

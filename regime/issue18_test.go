@@ -122,8 +122,8 @@ func TestVerdictRecords(t *testing.T) {
 		// Monthly CO2 at Mauna Loa: a trend plus a yearly cycle (R's help(co2)); the trend
 		// must be warned of.
 		{"co2", "r/co2.csv", 1. / 12, 0, func(v *Verdict) bool {
-			return v.Regime != Chaotic && hasCaution(v, "non-stationary")
-		}, "not chaotic, with a non-stationarity caution"},
+			return v.Regime != Chaotic && hasCaution(v, "non-stationary") && hasCaution(v, "trended")
+		}, "not chaotic, with non-stationarity and trend cautions"},
 		// Canadian lynx trappings, 114 years (help(lynx)): a ~10-year cycle with strongly
 		// nonlinear, asymmetric shape (threshold AR models since Tong, from memory); whether it
 		// is chaotic is not settled (from memory). A record this short must still get an

@@ -503,6 +503,7 @@ func Analyze(x []float64, dt float64, opt Options) (*Analysis, error) {
 		}
 		if ev.Lag <= 0 {
 			ev.Lag, an.LagMethod = lc.Lag, lc.Method
+			ev.Cautions = append(ev.Cautions, lc.Cautions...)
 		}
 		if ev.Theiler <= 0 {
 			ev.Theiler = embed.DefaultTheiler(lc.ACF)
@@ -525,6 +526,7 @@ func Analyze(x []float64, dt float64, opt Options) (*Analysis, error) {
 		}
 		if ev.Dim <= 0 {
 			ev.Dim, an.DimMethod = dc.Dimension, dc.Method
+			ev.Cautions = append(ev.Cautions, dc.Cautions...)
 		}
 	}
 	if ev.Dim <= 0 {
