@@ -28,8 +28,12 @@
 //
 // Confidence is the weighted share of the evidence items (lines 3, prediction error 3, 0-1
 // test 2, λ1 2, D2 1.5, time reversal 1, Cao's E2 1) whose "points to" set contains the
-// regime, times 0.8 for records under 2000 samples and 0.9 for non-stationary ones; an
-// undetermined verdict has confidence 0.
+// regime, times 0.8 for records under 2000 samples and 0.9 for non-stationary ones (mean,
+// variance or spectral drift); an undetermined verdict has confidence 0.
+//
+// Analyze answers records of 48 samples or more; a test the record is too short for is
+// listed among the unused evidence with the reason. Verdict.DominantPeriod names the
+// strongest cycle.
 //
 // References: J. Theiler, S. Eubank, A. Longtin, B. Galdrikian and J. D. Farmer (1992),
 // Physica D 58, 77; T. Schreiber and A. Schmitz (1996), Phys. Rev. Lett. 77, 635, and (2000),
