@@ -564,6 +564,20 @@ func Analyze(x []float64, dt float64, opt Options) (*Analysis, error) {
 		switch {
 		case err == nil && r != nil && !math.IsNaN(r.Lambda):
 			ev.Lyapunov = ExponentOf(r)
+			// Agreement across m: the estimate at m + 1 must agree within 25 % (judgement, as
+			// for ε in lyapunov.CheckRange); otherwise the exponent is uncertain and its
+			// interval is widened to cover both.
+			if e := ev.Lyapunov; !e.Bounded && ev.Dim < 10 {
+				r2, err := lyapunov.Divergence(xa, lyapunov.Options{Lag: ev.Lag, Dim: ev.Dim + 1, Theiler: ev.Theiler, Dt: dt, Seed: opt.Seed, Threads: threads})
+				if err == nil && !math.IsNaN(r2.Lambda) && math.Abs(r2.Lambda-r.Lambda) > 0.25*math.Abs(r.Lambda) {
+					e.Unsure = true
+					e.Lo, e.Hi = math.Min(e.Lo, r2.Lambda), math.Max(e.Hi, r2.Lambda)
+					if e.Why != "" {
+						e.Why += "; "
+					}
+					e.Why += fmt.Sprintf("λ1 = %.3g at m = %d but %.3g at m = %d", r.Lambda, ev.Dim, r2.Lambda, ev.Dim+1)
+				}
+			}
 		case r != nil && errors.Is(err, fit.ErrNoRange):
 			ev.Lyapunov = &Exponent{Value: math.NaN(), Lo: math.NaN(), Hi: math.NaN(), Bounded: true, Why: err.Error()}
 		case err != nil:
