@@ -354,7 +354,7 @@ func Run(ctx context.Context, s *series.Series, opt Options) (*Result, error) {
 			st.Params, st.Body = p, b
 			res.Lyapunov = st
 			if b.LambdaMax != nil {
-				lambda = &regime.Exponent{Value: *b.LambdaMax, Lo: b.Interval[0], Hi: b.Interval[1]}
+				lambda = regime.ExponentOf(run.R)
 				noLyap = false
 			}
 			return noFit

@@ -318,8 +318,15 @@ func (r *Result) decide(n int) error {
 			r.Hi = math.Max(slices.Max([]float64{tail[0].Hi, tail[1].Hi, tail[2].Hi}), hi)
 		}
 	}
+	// A correlation sum in m dimensions cannot scale faster than r^m: a slope above m is no
+	// dimension (a trend, non-stationarity or too few pairs at small radii). It is never
+	// reported; D2 and its interval are capped at m, a lower bound, with a caution.
+	if m := float64(r.Dim); r.D2 > m {
+		r.Cautions = append(r.Cautions, fmt.Sprintf("the fitted slope exceeds the embedding dimension %d, which no correlation sum can do: no real scaling range (a trend, non-stationarity or too few points); D2 is reported as %d, a lower bound", r.Dim, r.Dim))
+		r.D2, r.Lo, r.Hi = m, math.Min(r.Lo, m), math.Min(r.Hi, m)
+	}
 	if !r.Saturated {
-		r.Cautions = append(r.Cautions, fmt.Sprintf("D2 does not saturate up to dimension %d: the estimate %.2g is a lower bound of a high-dimensional or stochastic signal", last.Dim, last.D2))
+		r.Cautions = append(r.Cautions, fmt.Sprintf("D2 does not saturate up to dimension %d: the estimate %.2g is a lower bound of a high-dimensional or stochastic signal", last.Dim, r.D2))
 	}
 	if lim := 2 * math.Log10(float64(n)); r.D2 > lim {
 		r.Cautions = append(r.Cautions, fmt.Sprintf("D2 = %.2f exceeds 2·log10(N) = %.2f, the largest dimension %d points can show (Eckmann & Ruelle 1992)", r.D2, lim, n))

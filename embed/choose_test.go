@@ -35,11 +35,15 @@ func TestChooseTheilerRule(t *testing.T) {
 	}
 }
 
-// TestChooseRemembersNoDimension: a scan where no dimension qualifies (MaxDim 1: the Hénon
-// map needs 2, Hénon 1976) is kept in the choice with ErrNoDimension, not an error.
+// TestChooseRemembersNoDimension: a scan where no dimension can be read (a square wave: every
+// nearest neighbour is an exact duplicate, so neither criterion is defined) is kept in the
+// choice with ErrNoDimension, not an error.
 func TestChooseRemembersNoDimension(t *testing.T) {
-	x := henonX(2000)
-	c, err := Choose(x, ChooseOptions{Lag: 1, Theiler: 0, DimOptions: DimOptions{MaxDim: 1}})
+	x := make([]float64, 2000)
+	for i := range x {
+		x[i] = float64(1 - 2*(i/10%2))
+	}
+	c, err := Choose(x, ChooseOptions{Lag: 1, Theiler: 0, DimOptions: DimOptions{MaxDim: 4}})
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -15,7 +15,14 @@ const (
 	DimCao = "cao-e1-saturation"
 	// DimBoth: both rules give the same m.
 	DimBoth = "false-neighbors+cao-e1-saturation"
+	// DimNoiseLimited: neither rule applies because noise keeps the false-neighbour fraction
+	// above the threshold; the dimension is where the fraction and Cao's E1 stop improving.
+	DimNoiseLimited = "noise-limited"
 )
+
+// TrendLimit is the |correlation| of a record with time above which it counts as trended
+// for the dimension choice (judgement: a monotone trend then dominates the variance).
+const TrendLimit = 0.5
 
 // DimOptions set the dimension scan. Lag is required; the zero value of the rest gives the
 // defaults.
@@ -79,6 +86,10 @@ type DimChoice struct {
 	Cao                   []CaoPoint // d = 1 … MaxDim−1
 	E                     []float64  // Cao's E(d), d = 1 … MaxDim (index d−1)
 	EStar                 []float64  // Cao's E*(d), d = 1 … MaxDim
+	// Trend is the Pearson correlation of the record with time; |Trend| > TrendLimit skips
+	// m = 1, which a monotone trend makes look sufficient (neighbours in value are
+	// neighbours in time).
+	Trend float64
 	// NoiseLike is true when |E2(d) − 1| < 0.1 for every d: "consistent with noise" (Cao
 	// 1997: for random data E2 ≈ 1 for all d; the 0.1 band is CHECKS.md §5's tolerance).
 	NoiseLike bool
@@ -94,7 +105,10 @@ type DimChoice struct {
 //
 // The dimension is the smallest m whose false fraction is below Threshold, or the smallest d
 // with E1(d) > 0.9 and |E1(d+1) − E1(d)| < 0.05·E1(d), whichever is smaller; Method says
-// which rule gave it.
+// which rule gave it. When neither applies (noise keeps some neighbours false in every
+// dimension), the dimension is where the false fraction and E1 stop improving
+// (DimNoiseLimited, with a caution). A trended record (|correlation with time| >
+// TrendLimit) never gets m = 1.
 func ChooseDimension(x []float64, opt DimOptions) (*DimChoice, error) {
 	c, err := dimCurves(x, opt)
 	if err != nil {
@@ -155,11 +169,13 @@ func dimCurves(x []float64, opt DimOptions) (*DimChoice, error) {
 		c.MaxDim = 10
 	}
 	n, lag := len(x), opt.Lag
-	// At least 2·Theiler + 32 vectors in the largest dimension.
-	for c.MaxDim > 1 && n-c.MaxDim*lag < 2*c.Theiler+32 {
+	// At least 2·Theiler + 32 vectors in the largest dimension; records under 128 samples
+	// need only 2·Theiler + max(16, N/4), so that short records still scan a few dimensions.
+	minVec := 2*c.Theiler + min(32, max(16, n/4))
+	for c.MaxDim > 1 && n-c.MaxDim*lag < minVec {
 		c.MaxDim--
 	}
-	if n-c.MaxDim*lag < 2*c.Theiler+32 {
+	if n-c.MaxDim*lag < minVec {
 		return nil, fmt.Errorf("dimension: %d samples are too few for lag %d and Theiler window %d: %w", n, lag, c.Theiler, ErrTooShort)
 	}
 	if c.MaxDim < opt.MaxDim {
@@ -180,6 +196,7 @@ func dimCurves(x []float64, opt DimOptions) (*DimChoice, error) {
 	if ra == 0 {
 		return nil, fmt.Errorf("dimension: the record is constant")
 	}
+	c.Trend = timeCorrelation(x, mean, ss)
 	total := 0
 	for m := 1; m <= c.MaxDim; m++ {
 		total += n - m*lag
@@ -269,19 +286,43 @@ func scoreNeighbors(x []float64, lag, m int, idx []int32, dist []float64, ra, rt
 		sumA / fc, sumE / fc, zeros
 }
 
+// timeCorrelation returns the Pearson correlation of x with its sample index.
+func timeCorrelation(x []float64, mean, ss float64) float64 {
+	n := float64(len(x))
+	tm := (n - 1) / 2
+	var sxt, stt float64
+	for i, v := range x {
+		d := float64(i) - tm
+		sxt += d * (v - mean)
+		stt += d * d
+	}
+	if stt == 0 || ss == 0 {
+		return 0
+	}
+	return sxt / math.Sqrt(stt*ss)
+}
+
 func (c *DimChoice) decide() {
+	trended := math.Abs(c.Trend) > TrendLimit
+	minDim := 1
+	if trended {
+		minDim = 2
+	}
 	for _, p := range c.FNN {
-		if p.Points > 0 && p.Fraction < c.Threshold {
+		if p.Dim >= minDim && p.Points > 0 && p.Fraction < c.Threshold {
 			c.FNNDim = p.Dim
 			break
 		}
 	}
 	for i := 0; i+1 < len(c.Cao); i++ {
 		e1, next := c.Cao[i].E1, c.Cao[i+1].E1
-		if e1 > 0.9 && math.Abs(next-e1) < 0.05*e1 {
+		if c.Cao[i].Dim >= minDim && e1 > 0.9 && math.Abs(next-e1) < 0.05*e1 {
 			c.CaoDim = c.Cao[i].Dim
 			break
 		}
+	}
+	if trended {
+		c.Cautions = append(c.Cautions, fmt.Sprintf("the record is trended (correlation with time %.2f): a monotone trend makes one dimension look sufficient, so m = 1 is not considered; remove the trend first (--detrend linear)", c.Trend))
 	}
 	c.NoiseLike = len(c.Cao) > 0
 	for _, p := range c.Cao {
@@ -323,11 +364,71 @@ func (c *DimChoice) decide() {
 	case math.IsInf(c.minFNN(), 1):
 		c.Reason = fmt.Sprintf("no dimension up to %d: in every dimension each point's nearest neighbour is an exact duplicate (distance 0), as in a signal of a few repeated values such as a square wave or a few-level signal, so neither the false-neighbour fraction nor Cao's E1 can be read", c.MaxDim)
 	default:
-		c.Reason = fmt.Sprintf("no dimension up to %d: the false-neighbour fraction never falls below %.3g (lowest %.4f) and Cao's E1 does not saturate", c.MaxDim, c.Threshold, c.minFNN())
+		if m, why := c.noiseLimited(minDim); m > 0 {
+			c.Dimension, c.Method = m, DimNoiseLimited
+			c.Reason = why
+			c.Cautions = append(c.Cautions, fmt.Sprintf("noise-limited dimension: the false-neighbour fraction stays above %.3g (lowest %.4f); m = %d is where it and Cao's E1 stop improving — noise or a high-dimensional signal", c.Threshold, c.minFNN(), m))
+		} else if c.MaxDim <= minDim {
+			c.Dimension, c.Method = c.MaxDim, DimNoiseLimited
+			c.Reason = fmt.Sprintf("the record is too short to scan beyond dimension %d at lag %d: m = %d", c.MaxDim, c.Lag, c.MaxDim)
+			c.Cautions = append(c.Cautions, fmt.Sprintf("dimension %d is only what the record's length allows at lag %d; a longer record or a shorter --lag is needed to test higher dimensions", c.MaxDim, c.Lag))
+		} else {
+			c.Reason = fmt.Sprintf("no dimension up to %d: the false-neighbour fraction never falls below %.3g (lowest %.4f) and Cao's E1 does not saturate", c.MaxDim, c.Threshold, c.minFNN())
+		}
 	}
 	if c.NoiseLike {
 		c.Cautions = append(c.Cautions, "consistent with noise: Cao's E2 stays within 0.1 of 1 for every dimension, as for a random signal (Cao 1997)")
 	}
+}
+
+// noiseLimited returns the dimension where the false-neighbour fraction and Cao's E1 both
+// stop improving, for records whose fraction never falls below the threshold (noise keeps
+// some neighbours false in every dimension): the smallest m ≥ max(2, minDim) from which the
+// fraction falls by less than a fifth of its value or by less than 0.005 at the next m, and
+// the smallest d from which E1 changes by less than 5 % (the saturation rule of Cao 1997
+// without its E1 > 0.9 condition); the larger of the two. The fifth and 0.005 are judgement.
+// 0 when neither levels off within the scan.
+func (c *DimChoice) noiseLimited(minDim int) (int, string) {
+	lo := max(2, minDim)
+	fnn := 0
+	for i := 0; i+1 < len(c.FNN); i++ {
+		p, q := c.FNN[i], c.FNN[i+1]
+		if p.Dim < lo || p.Points == 0 || q.Points == 0 {
+			continue
+		}
+		if d := p.Fraction - q.Fraction; d < 0.2*p.Fraction || d < 0.005 {
+			fnn = p.Dim
+			break
+		}
+	}
+	cao := 0
+	for i := 0; i+1 < len(c.Cao); i++ {
+		e1, next := c.Cao[i].E1, c.Cao[i+1].E1
+		if c.Cao[i].Dim >= lo && !math.IsNaN(e1) && math.Abs(next-e1) < 0.05*e1 {
+			cao = c.Cao[i].Dim
+			break
+		}
+	}
+	switch {
+	case fnn > 0 && cao > 0:
+		m := max(fnn, cao)
+		return m, fmt.Sprintf("noise-limited: the false-neighbour fraction never falls below %.3g but levels off from m = %d (%.4f), and Cao's E1 stops changing (by less than 5 %%) from d = %d (E1 = %.3f): m = %d",
+			c.Threshold, fnn, c.FNN[fnn-1].Fraction, cao, c.Cao[cao-1].E1, m)
+	case fnn > 0:
+		return fnn, fmt.Sprintf("noise-limited: the false-neighbour fraction never falls below %.3g but levels off from m = %d (%.4f); Cao's E1 keeps changing within the scan", c.Threshold, fnn, c.FNN[fnn-1].Fraction)
+	case cao > 0:
+		return cao, fmt.Sprintf("noise-limited: the false-neighbour fraction never falls below %.3g (lowest %.4f) and keeps falling; Cao's E1 stops changing (by less than 5 %%) from d = %d (E1 = %.3f)", c.Threshold, c.minFNN(), cao, c.Cao[cao-1].E1)
+	}
+	best := 0
+	for _, p := range c.FNN {
+		if p.Dim >= lo && p.Points > 0 && (best == 0 || p.Fraction < c.FNN[best-1].Fraction) {
+			best = p.Dim
+		}
+	}
+	if best > 0 {
+		return best, fmt.Sprintf("noise-limited: neither the false-neighbour fraction nor Cao's E1 levels off up to dimension %d; m = %d has the lowest false fraction (%.4f)", c.MaxDim, best, c.FNN[best-1].Fraction)
+	}
+	return 0, ""
 }
 
 func (c *DimChoice) minFNN() float64 {

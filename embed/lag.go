@@ -128,6 +128,9 @@ func ChooseLag(x []float64, opt LagOptions) (*LagChoice, error) {
 	}
 	c := &LagChoice{Z: z, MaxLag: maxLag, MI: mi, ACF: acf}
 	chooseLag(c)
+	if mi.Blocks > 0 && mi.Blocks < 8 {
+		c.Reason += fmt.Sprintf("; short record (%d samples): lags scanned up to %d and the information's standard error from %d blocks instead of 8", len(x), maxLag, mi.Blocks)
+	}
 	return c, nil
 }
 

@@ -35,7 +35,8 @@ type MIOptions struct {
 	// neighbour search and counts; 0 or negative excludes only the point itself (but see
 	// LagOptions for the default of ChooseLag).
 	Theiler int
-	// Blocks is the number of contiguous blocks used for the standard error; 0 means 8.
+	// Blocks is the number of contiguous blocks used for the standard error; 0 means 8, or
+	// as many blocks of 16 pairs as the record allows (at least 2) when it is shorter.
 	Blocks int
 	// Threads is the number of goroutines (0 = 1 for the histogram; all cores for KSG queries
 	// through the neighbour index). Results do not depend on it.
@@ -168,7 +169,9 @@ func RankBins(x []float64, bins int) []uint16 {
 func histogramMI(x []float64, maxLag int, opt MIOptions) (*MICurve, error) {
 	blocks := opt.Blocks
 	if blocks <= 0 {
-		blocks = 8
+		// 8 blocks of at least 16 pairs; a short record gets fewer blocks (at least 2), so
+		// that records of a few dozen samples still get a curve.
+		blocks = min(8, max(2, (len(x)-maxLag)/16))
 	}
 	if blocks < 2 {
 		return nil, fmt.Errorf("mutual information: %d blocks: want at least 2", blocks)

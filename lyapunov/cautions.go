@@ -35,7 +35,7 @@ func (r *Result) cautions(o Options) {
 	if ch.FitErr == nil {
 		if ch.Fit.Plateau && r.AutoRange && (r.From != 1 || r.To != r.Horizon) {
 			r.Cautions = append(r.Cautions, fmt.Sprintf(
-				"no stable stretch of the divergence curve raises the separation by a factor e within the %d steps, though the curve as a whole does rise: the slope is read over the longest stable stretch, steps %d…%d; a longer --horizon may show the exponential growth more clearly",
+				"no stable stretch of the divergence curve raises the separation by a factor e within the %d steps, though the curve as a whole does rise: the slope is the mean growth over its rising part, steps %d…%d (up to 70 %% of its rise); the exponent is uncertain",
 				r.Horizon, r.From, r.To))
 		} else if ch.Fit.Plateau && r.AutoRange {
 			r.Cautions = append(r.Cautions, fmt.Sprintf(
@@ -109,4 +109,97 @@ func (r *Result) epsCautions() {
 			"the divergence depends strongly on ε: the curves for different ε merge by step %d (their spread falls from %.2f to %.2f nats): the initial neighbourhood size is forgotten, as for noise",
 			end, s0, s1))
 	}
+}
+
+// RangeCheck is the check of an automatic fit range of a divergence curve: whether the range
+// shows exponential growth at all, and how far the slope moves across the choices the
+// estimate depends on.
+type RangeCheck struct {
+	// Growth is the rise of the chosen curve over the fit range, in nats (S(To) − S(From)
+	// on the fitted line).
+	Growth float64 `json:"growth"`
+	// Steps is the length of the fit range in steps (To − From).
+	Steps int `json:"steps"`
+	// Bounded is true when the divergence curve has no exponential range: after the first
+	// step (where measurement noise is resolved) it rises by less than one nat over the whole
+	// horizon, or the fitted line rises by less than half a nat. λ1 is then not evidence of
+	// exponential divergence.
+	Bounded bool `json:"bounded"`
+	// Unsure is true when the range is short (< 4 steps), rises by less than one nat, is no
+	// stable stretch (a mean growth rate), or the slope differs across ε by more than 25 % of
+	// its value.
+	Unsure bool `json:"unsure"`
+	// Reasons says in words why the range is bounded or unsure.
+	Reasons []string `json:"reasons"`
+	// Spread is the interval of λ1 (per time unit) widened to cover the slopes of every ε
+	// that has a range as well as the bootstrap interval.
+	Spread [2]float64 `json:"spread"`
+}
+
+// CheckRange checks the fit range of r (common practice after Kantz 1994, "A robust method to
+// estimate the maximal Lyapunov exponent of a time series", Phys. Lett. A 185, 77, and
+// Rosenstein, Collins & De Luca 1993, Physica D 65, 117: the exponent is read only where the
+// curves for different ε are parallel straight lines over a range of real growth). The
+// one-nat, half-nat, four-step and 25 % limits are judgement.
+func (r *Result) CheckRange() RangeCheck {
+	rc := RangeCheck{Spread: r.Interval}
+	if r.Chosen < 0 || r.Chosen >= len(r.Curves) {
+		rc.Bounded = true
+		rc.Reasons = []string{"no divergence curve"}
+		return rc
+	}
+	ch := &r.Curves[r.Chosen]
+	if ch.FitErr != nil {
+		rc.Bounded = true
+		rc.Reasons = append(rc.Reasons, "no linear range: "+ch.FitErr.Error())
+		return rc
+	}
+	rc.Steps = r.To - r.From
+	rc.Growth = ch.Fit.Line.Slope * float64(rc.Steps)
+	// The rise after the first step: a jump at step 1 is measurement noise being resolved.
+	later := r.TotalRise - math.Max(r.FirstStepRise, 0)
+	switch {
+	case later < 1:
+		rc.Bounded = true
+		if r.TotalRise > 0 && r.FirstStepRise > 0.5*r.TotalRise {
+			rc.Reasons = append(rc.Reasons, fmt.Sprintf("the divergence curve saturates at the first step (%.2f of %.2f nats): noise, not deterministic divergence", r.FirstStepRise, r.TotalRise))
+		} else {
+			rc.Reasons = append(rc.Reasons, fmt.Sprintf("the separation grows by only %.2f nats after the first step over the whole horizon: the divergence stays bounded", later))
+		}
+	case rc.Growth < 0.5:
+		rc.Bounded = true
+		rc.Reasons = append(rc.Reasons, fmt.Sprintf("the separation grows by only %.2f nats over the fit range (steps %d…%d): no exponential range", rc.Growth, r.From, r.To))
+	case rc.Growth < 1:
+		rc.Unsure = true
+		rc.Reasons = append(rc.Reasons, fmt.Sprintf("the separation grows by %.2f nats over the fit range, less than one", rc.Growth))
+	}
+	if ch.Fit.Plateau && !rc.Bounded {
+		rc.Unsure = true
+		rc.Reasons = append(rc.Reasons, "no stable stretch of the divergence curve: the slope is a mean growth rate")
+	}
+	if rc.Steps < 4 {
+		rc.Unsure = true
+		rc.Reasons = append(rc.Reasons, fmt.Sprintf("the fit range spans only %d steps", rc.Steps))
+	}
+	lo, hi := math.Inf(1), math.Inf(-1)
+	dt := r.Dt
+	if dt <= 0 {
+		dt = 1
+	}
+	for _, s := range r.EpsSlopes {
+		if !math.IsNaN(s) {
+			lo, hi = math.Min(lo, s/dt), math.Max(hi, s/dt)
+		}
+	}
+	if hi >= lo {
+		rc.Spread = [2]float64{math.Min(rc.Spread[0], lo), math.Max(rc.Spread[1], hi)}
+		if hi-lo > 0.25*math.Abs(r.Lambda)+1e-12 {
+			rc.Unsure = true
+			rc.Reasons = append(rc.Reasons, fmt.Sprintf("the slope depends on ε: %.4g … %.4g per time unit", lo, hi))
+		}
+	}
+	if rc.Reasons == nil {
+		rc.Reasons = []string{}
+	}
+	return rc
 }

@@ -432,7 +432,24 @@ func (o Options) fitCurve(y []float64) (fit.Range, error) {
 			top = math.Max(top, y[k])
 		}
 		if ro.FlatRise > 0 && top-y[1] >= ro.FlatRise {
-			return rg, nil
+			// The curve does rise by a factor e but no stretch of it is stable: noise bends
+			// the exponential stretch, or it saturates early. Read the mean growth over its
+			// rising part, from step 1 to where it first completes 70 % of its rise (judgement:
+			// below the bend into the saturation plateau), rather than over the longest stable
+			// stretch, which is then the plateau itself (noisy Lorenz gave λ1 ≈ 0 that way).
+			target := y[1] + 0.7*(top-y[1])
+			end := 1
+			for end < o.Horizon && y[end] < target {
+				end++
+			}
+			if end-1 < 4 {
+				return rg, nil
+			}
+			l, err := fit.LeastSquares(steps[1:end+1], y[1:end+1])
+			if err != nil {
+				return fit.Range{}, err
+			}
+			return fit.Range{From: 1, To: end, Line: l, Median: l.Slope, Plateau: true}, nil
 		}
 		l, err := fit.LeastSquares(steps[1:], y[1:])
 		if err != nil {

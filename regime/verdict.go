@@ -4,10 +4,12 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"slices"
 	"strings"
 
 	"unfold/dimension"
 	"unfold/embed"
+	"unfold/fit"
 	"unfold/lyapunov"
 	"unfold/series"
 )
@@ -25,6 +27,13 @@ const (
 // package lyapunov estimates it; it is an input of the verdict.
 type Exponent struct {
 	Value, Lo, Hi float64
+	// Bounded is true when the estimate's own stage found no exponential range (the
+	// divergence stays bounded; lyapunov.RangeCheck.Bounded): λ1 is then no evidence of chaos.
+	Bounded bool
+	// Unsure is true when the fit range was short, grew by less than one nat or depended on
+	// ε (lyapunov.RangeCheck.Unsure); Why says why.
+	Unsure bool
+	Why    string
 }
 
 // Item is one row of the evidence table.
@@ -37,6 +46,10 @@ type Item struct {
 	PointsTo string `json:"points_to"`
 	// Weight is the item's weight in the confidence.
 	Weight float64 `json:"weight"`
+	// Used is true when the decision rule read the item; Why says what role it played or,
+	// for an unused item, why it was not used.
+	Used bool   `json:"used"`
+	Why  string `json:"why"`
 }
 
 // Evidence is everything the verdict is decided from. Every field is optional except N;
@@ -51,9 +64,10 @@ type Evidence struct {
 	ZeroOne           *ZeroOneResult
 	// Prediction and Reversal are the rank tests against IAAFT surrogates.
 	Prediction, Reversal *RankTest
-	// Alpha is the level of the rank tests (0 means 0.05); MinSigmas the effect-size guard
-	// (0 means 3).
-	Alpha, MinSigmas float64
+	// Alpha is the level of the rank tests (0 means 0.05). A test whose surrogate count
+	// cannot reach it (one-sided: K ≥ 1/α − 1; two-sided: K ≥ 2/α − 1; Theiler & Prichard
+	// 1996) is listed as unused.
+	Alpha float64
 	// Lyapunov is λ1 with its interval (nats per time unit), when it was estimated.
 	Lyapunov *Exponent
 	// Dimension is the correlation-dimension result.
@@ -64,6 +78,11 @@ type Evidence struct {
 	CaoE2Dev     float64
 	// Stationary is false when the record's halves and quarters differ (series.Describe).
 	Stationary bool
+	// Drift compares the spectra of the first and last thirds (SpectralDrift).
+	Drift *Drift
+	// Skipped lists the tests that could not be computed, as "name: reason"; Decide lists
+	// them among the unused evidence.
+	Skipped []string
 	// Cautions collected while gathering the evidence.
 	Cautions []string
 }
@@ -76,6 +95,28 @@ type Verdict struct {
 	Cautions   []string        `json:"cautions"`
 	// Rule says which step of the decision rule gave the regime.
 	Rule string `json:"rule"`
+	// DominantPeriod is the period (time units) of the strongest spectral line or, without
+	// lines, of the strongest bin of the spectrum; 0 when there is none.
+	DominantPeriod float64 `json:"dominant_period"`
+	// Unused names the evidence items the rule did not use, each with the reason.
+	Unused []string `json:"unused"`
+}
+
+// MinLineFraction is the share of the variance spectral lines must explain for a periodic or
+// quasiperiodic verdict (judgement: lines that leave more than a tenth of the power broadband
+// describe a noisy oscillation, not a periodic one).
+const MinLineFraction = 0.9
+
+// SurrogatesFor returns the fewest surrogates a rank test at level alpha needs:
+// ⌈1/α⌉ − 1 one-sided and ⌈2/α⌉ − 1 two-sided (19 and 39 at 5 %, 99 one-sided at 1 %;
+// Theiler & Prichard 1996, "Constrained-realization Monte-Carlo method for hypothesis
+// testing", Physica D 94, 221).
+func SurrogatesFor(alpha float64, side Side) int {
+	k := 1 / alpha
+	if side == TwoSided {
+		k = 2 / alpha
+	}
+	return int(math.Ceil(k-1e-9)) - 1
 }
 
 // Decide applies the decision rule of the package comment to the evidence.
@@ -84,22 +125,25 @@ func Decide(ev *Evidence) *Verdict {
 	if alpha <= 0 {
 		alpha = 0.05
 	}
-	minS := ev.MinSigmas
-	if minS <= 0 {
-		minS = 3
-	}
 	v := &Verdict{Evidence: map[string]Item{}, Cautions: append([]string(nil), ev.Cautions...)}
 	add := func(name string, it Item) {
 		if math.IsNaN(it.Value) || math.IsInf(it.Value, 0) {
-			return // a test that produced no number is left out of the table
+			it.Value, it.Used = 0, false
+			it.Why = "the test produced no finite number"
 		}
 		v.Evidence[name] = it
 	}
+	const (
+		support = "supporting evidence only: "
+	)
 
+	// Lines and the dominant cycle.
 	lineKind := LineKind("")
+	lineFrac := 0.0
 	if l := ev.Lines; l != nil {
-		lineKind = l.Kind
-		it := Item{Value: l.LineFraction, Weight: 3}
+		lineKind, lineFrac = l.Kind, l.LineFraction
+		v.DominantPeriod = dominantPeriod(l)
+		it := Item{Value: l.LineFraction, Weight: 3, Used: true}
 		switch l.Kind {
 		case LinesPeriodic:
 			it.PointsTo = Periodic
@@ -111,73 +155,111 @@ func Decide(ev *Evidence) *Verdict {
 			it.PointsTo = Chaotic + "|" + Stochastic
 			it.Detail = fmt.Sprintf("broadband: %.1f %% of the power in %d significant lines", 100*l.LineFraction, len(l.Peaks))
 		}
+		if l.Kind != LinesBroadband && l.LineFraction < MinLineFraction {
+			it.PointsTo = Stochastic + "|" + Chaotic + "|" + string(l.Kind)
+			it.Why = fmt.Sprintf("the lines explain %.0f %% of the variance, less than the %.0f %% a %s verdict needs: a noisy oscillation", 100*l.LineFraction, 100*MinLineFraction, l.Kind)
+		} else {
+			it.Why = fmt.Sprintf("step 1: lines must explain at least %.0f %% of the variance for a periodic or quasiperiodic verdict", 100*MinLineFraction)
+		}
 		add("lines", it)
 		if l.Kind != LinesBroadband && l.LineFraction < 0.95 {
 			v.Cautions = append(v.Cautions, fmt.Sprintf("noise floor: %.0f %% of the power is broadband beside the lines", 100*(1-l.LineFraction)))
 		}
 	}
-	k := math.NaN()
 	if z := ev.ZeroOne; z != nil {
-		k = z.K
 		it := Item{Value: z.K, Weight: 2, Detail: fmt.Sprintf("0-1 test K = %.3f (median over c, %d samples, subsampling step %d)", z.K, z.Samples, z.Subsample)}
 		if z.K < 0.5 {
 			it.PointsTo = Periodic + "|" + Quasiperiodic
 		} else {
 			it.PointsTo = Chaotic + "|" + Stochastic
 		}
+		it.Why = support + "K ≈ 1 also for noise, noisy oscillations and phase-diffusing signals (Gottwald & Melbourne 2009)"
+		if z.Samples < 1000 {
+			it.Why += fmt.Sprintf("; %d samples are too few for a reliable K", z.Samples)
+		}
 		add("zero_one", it)
 	}
-	nonlinear, tested := false, false
+	// Rank tests: the level must be reachable with the surrogates at hand.
+	predRej, tested := false, false
 	if p := ev.Prediction; p != nil {
-		tested = true
-		rej := p.Rejects(alpha, minS)
-		nonlinear = nonlinear || rej
-		it := Item{Value: p.Data, Weight: 3, Detail: fmt.Sprintf("prediction error %.3g against IAAFT surrogates %s: p = %.3g, %.1f σ", p.Data, rangeString(p.Surrogates), p.P, p.Sigmas)}
-		switch {
-		case rej:
-			it.PointsTo = Chaotic + "|" + Periodic + "|" + Quasiperiodic
-		case maxOf(p.Surrogates) < 0.1:
-			// The surrogates, which keep only the spectrum, predict almost perfectly too: the
-			// spectrum alone makes the signal predictable, as for a line spectrum.
-			it.PointsTo = Periodic + "|" + Quasiperiodic
-			it.Detail += "; the surrogates predict as well: the spectrum alone makes the signal predictable"
-		default:
-			it.PointsTo = Stochastic
+		need := SurrogatesFor(alpha, Smaller)
+		it := Item{Value: p.Data, Weight: 3, Detail: fmt.Sprintf("prediction error %.3g against %d IAAFT surrogates %s: rank p = %.3g (one-sided, level %.2g), %.1f σ", p.Data, len(p.Surrogates), rangeString(p.Surrogates), p.P, alpha, p.Sigmas)}
+		if len(p.Surrogates) < need {
+			it.PointsTo = ""
+			it.Why = fmt.Sprintf("%d surrogates cannot reach the one-sided level %.2g: a rank test needs at least %d (Theiler & Prichard 1996)", len(p.Surrogates), alpha, need)
+		} else {
+			tested, it.Used = true, true
+			predRej = p.P <= alpha+1e-12
+			switch {
+			case predRej:
+				it.PointsTo = Chaotic + "|" + Periodic + "|" + Quasiperiodic
+				it.Why = "step 2: the nonlinear predictor beats the linear surrogates: deterministic structure"
+			case maxOf(p.Surrogates) < 0.1:
+				it.PointsTo = Periodic + "|" + Quasiperiodic
+				it.Detail += "; the surrogates predict as well: the spectrum alone makes the signal predictable"
+				it.Why = "step 2: the null is not rejected"
+			default:
+				it.PointsTo = Stochastic
+				it.Why = "step 2: the null is not rejected"
+			}
 		}
 		add("prediction_error", it)
 	}
+	revRej := false
 	if r := ev.Reversal; r != nil {
-		tested = true
-		a2 := math.Max(alpha, 2/float64(len(r.Surrogates)+1))
-		rej := r.Rejects(a2, minS)
-		nonlinear = nonlinear || rej
-		it := Item{Value: r.Data, Weight: 1, Detail: fmt.Sprintf("time-reversal asymmetry %.3g against IAAFT surrogates %s: p = %.3g (two-sided, level %.2g), %.1f σ", r.Data, rangeString(r.Surrogates), r.P, a2, r.Sigmas)}
-		if rej {
-			it.PointsTo = Chaotic + "|" + Periodic + "|" + Quasiperiodic
+		need := SurrogatesFor(alpha, TwoSided)
+		it := Item{Value: r.Data, Weight: 1, Detail: fmt.Sprintf("time-reversal asymmetry %.3g against %d IAAFT surrogates %s: rank p = %.3g (two-sided, level %.2g), %.1f σ", r.Data, len(r.Surrogates), rangeString(r.Surrogates), r.P, alpha, r.Sigmas)}
+		if len(r.Surrogates) < need {
+			it.Why = fmt.Sprintf("%d surrogates cannot reach the two-sided level %.2g: a rank test needs at least %d (Theiler & Prichard 1996)", len(r.Surrogates), alpha, need)
+		} else {
+			revRej = r.P <= alpha+1e-12
+			it.Why = support + "time irreversibility shows nonlinearity, not determinism (a nonlinear stochastic process is irreversible too)"
+		}
+		if revRej {
+			it.PointsTo = Chaotic + "|" + Periodic + "|" + Quasiperiodic + "|" + Stochastic
 		} else {
 			it.PointsTo = Stochastic + "|" + Periodic + "|" + Quasiperiodic
 		}
 		add("time_reversal", it)
 	}
-	lyapPos, lyapNeg := false, false
+	lyapPos, lyapNeg, lyapChaos := false, false, false
 	if l := ev.Lyapunov; l != nil {
 		// Growth below 1 % per delay time is indistinguishable from zero (judgement).
 		small := 0.01 / (float64(max(ev.Lag, 1)) * math.Max(ev.Dt, 1e-300))
 		lyapPos, lyapNeg = l.Lo > 0 && l.Value > small, l.Hi <= 0 || math.Abs(l.Value) <= small
-		it := Item{Value: l.Value, Weight: 2, Detail: fmt.Sprintf("largest Lyapunov exponent %.3g [%.3g, %.3g] nats per time unit", l.Value, l.Lo, l.Hi)}
+		lyapChaos = lyapPos && !l.Bounded
+		it := Item{Value: l.Value, Weight: 2, Used: true, Detail: fmt.Sprintf("largest Lyapunov exponent %.3g [%.3g, %.3g] nats per time unit", l.Value, l.Lo, l.Hi)}
 		switch {
+		case l.Bounded:
+			it.PointsTo = Periodic + "|" + Quasiperiodic + "|" + Stochastic
+			it.Detail += "; the divergence curve has no exponential range"
+			if l.Why != "" {
+				it.Detail += " (" + l.Why + ")"
+			}
+			it.Why = "step 3: bounded divergence is no evidence of chaos"
 		case lyapPos:
 			it.PointsTo = Chaotic + "|" + Stochastic // noise also gives positive estimates
+			it.Why = "step 3: a positive λ1 with an exponential range"
 		case lyapNeg:
 			it.PointsTo = Periodic + "|" + Quasiperiodic
+			it.Why = "step 3: λ1 is not positive"
 		default:
 			it.PointsTo = Periodic + "|" + Quasiperiodic + "|" + Chaotic
+			it.Why = "step 3: λ1's interval includes zero"
+		}
+		if l.Unsure && !l.Bounded {
+			it.Detail += "; the fit range is uncertain"
+			if l.Why != "" {
+				it.Detail += " (" + l.Why + ")"
+			}
+		}
+		if math.IsNaN(l.Value) {
+			it.Value = 0
+			it.Detail = "no λ1: " + l.Why
 		}
 		add("lyapunov", it)
 	}
-	saturated := false
 	if d := ev.Dimension; d != nil {
-		saturated = d.Saturated
 		it := Item{Value: d.D2, Weight: 1.5, Detail: fmt.Sprintf("correlation dimension %.3g [%.3g, %.3g] at m = %d, saturated %v", d.D2, d.Lo, d.Hi, d.Dim, d.Saturated)}
 		switch {
 		case !d.Saturated:
@@ -189,6 +271,7 @@ func Decide(ev *Evidence) *Verdict {
 		default:
 			it.PointsTo = Chaotic
 		}
+		it.Why = support + "a finite D2 also appears for coloured noise (Osborne & Provenzale 1989, Physica D 35, 357)"
 		add("correlation_dimension", it)
 	}
 	if ev.CaoNoiseLike != nil {
@@ -198,41 +281,103 @@ func Decide(ev *Evidence) *Verdict {
 		} else {
 			it.PointsTo = Periodic + "|" + Quasiperiodic + "|" + Chaotic
 		}
+		it.Why = support + "E2 departs from 1 for coloured noise as well as for determinism"
 		add("cao_e2", it)
+	}
+	drift := ev.Drift != nil && ev.Drift.Changed
+	if d := ev.Drift; d != nil {
+		// Weight 0: the item gates step 3 but does not vote for a regime.
+		add("spectral_drift", Item{Value: d.Distance, Used: true, Detail: d.String(),
+			Why: "step 3: a spectrum that moves between the thirds lets non-stationarity alone reject the surrogates"})
+	}
+	if drift {
+		v.Cautions = append(v.Cautions, "non-stationary spectrum: "+ev.Drift.String()+"; a chirp, a drifting rhythm or a change of regime: surrogate tests and the exponent assume a stationary record")
 	}
 
 	// The decision rule (package comment).
-	kRegular := math.IsNaN(k) || k < 0.5
-	// For step 1 a saturated D2 says chaos only at a non-integer value: cycles and tori have
-	// integer dimensions.
-	fractal := saturated && ev.Dimension != nil && math.Abs(ev.Dimension.D2-math.Round(ev.Dimension.D2)) >= 0.15
+	chaosEvidence := predRej && lyapChaos
+	// Lines that explain most of the variance yield only to a firm exponent: a mean growth
+	// rate without a stable exponential stretch is also what a phase-diffusing oscillation
+	// gives.
+	firmChaos := chaosEvidence && !ev.Lyapunov.Unsure
+	// A saturated D2 near 1 on an oversampled record is a closed curve: a noisy limit cycle.
+	// A chaotic flow needs D2 > 2 (judgement: below 1.5 the cycle is not in doubt). Maps
+	// (lag 1) are exempt: the logistic map's chaotic attractor has D2 ≈ 1.
+	cycleD2 := ev.Lag > 1 && ev.Dimension != nil && ev.Dimension.Saturated && ev.Dimension.D2 < 1.5
+	cycle := ""
+	if v.DominantPeriod > 0 {
+		cycle = fmt.Sprintf("; dominant cycle: period %.4g time units", v.DominantPeriod)
+		if lineKind != "" && lineKind != LinesBroadband {
+			cycle += fmt.Sprintf(" (%.0f %% of the variance in lines)", 100*lineFrac)
+		}
+	}
 	switch {
-	case (lineKind == LinesPeriodic || lineKind == LinesQuasiperiodic) && chaosVotes(k, lyapPos, fractal) < 2:
+	case (lineKind == LinesPeriodic || lineKind == LinesQuasiperiodic) && lineFrac >= MinLineFraction && !firmChaos:
 		v.Regime = string(lineKind)
-		v.Rule = "1: the power is in lines explained by " + map[bool]string{true: "one fundamental", false: "incommensurate fundamentals"}[lineKind == LinesPeriodic] + ", and fewer than two chaos indicators contradict"
+		v.Rule = fmt.Sprintf("1: lines explained by %s carry %.0f %% of the variance (at least %.0f %%), and no firm chaos evidence (rejected null with a stable exponential divergence) contradicts",
+			map[bool]string{true: "one fundamental", false: "incommensurate fundamentals"}[lineKind == LinesPeriodic], 100*lineFrac, 100*MinLineFraction)
 	case !tested:
 		v.Regime = Undetermined
-		v.Rule = "2: no surrogate test was run, so noise cannot be excluded"
-	case !nonlinear:
+		v.Rule = "2: no prediction test against enough surrogates was run, so noise cannot be excluded"
+	case !predRej:
 		v.Regime = Stochastic
-		v.Rule = "2: the surrogate tests cannot tell the signal from a linear Gaussian process seen through a static monotone function"
-	case chaosVotes(k, lyapPos, saturated) >= 2 && !lyapNeg:
+		v.Rule = "2: the nonlinear prediction does not beat the IAAFT surrogates (a linear Gaussian process seen through a static monotone function): no evidence of low-dimensional determinism"
+		if revRej {
+			v.Rule += "; time reversal does reject the linear null: a nonlinear stochastic process or a noisy nonlinear oscillation"
+		}
+		v.Rule += cycle
+	case drift:
+		v.Regime = Undetermined
+		v.Rule = "3: the null is rejected, but the spectrum changes between the first and last thirds: non-stationarity alone rejects stationary surrogates" + cycle
+	case chaosEvidence && cycleD2:
+		v.Regime = Undetermined
+		v.Rule = fmt.Sprintf("3: the null is rejected and λ1 > 0, but D2 saturates at %.2f: a closed curve, as for a noisy or phase-diffusing limit cycle; a chaotic flow needs D2 > 2", ev.Dimension.D2) + cycle
+	case chaosEvidence:
 		v.Regime = Chaotic
-		v.Rule = "3: nonlinear determinism, and at least two of the chaos indicators agree: " + chaosWhy(k, lyapPos, saturated)
+		v.Rule = "3: the nonlinear prediction beats the surrogates and λ1 > 0 with an exponential range of the divergence"
 	default:
 		v.Regime = Undetermined
-		v.Rule = "3: the null is rejected, but the chaos indicators (0-1 test, λ1, D2 saturation) do not agree"
+		why := "λ1 was not estimated"
+		if l := ev.Lyapunov; l != nil {
+			switch {
+			case l.Bounded:
+				why = "the divergence curve has no exponential range"
+			case lyapNeg:
+				why = "λ1 is not positive"
+			default:
+				why = "λ1's interval includes zero"
+			}
+		}
+		v.Rule = "3: the null is rejected (deterministic structure), but " + why + ": chaos is not established" + cycle
 	}
-	if lineKind != "" && lineKind != LinesBroadband && !kRegular {
-		v.Cautions = append(v.Cautions, fmt.Sprintf("the spectrum is a line spectrum but the 0-1 test gives K = %.2f: weakly chaotic or phase-diffusing motion", k))
+	if lineKind != "" && lineKind != LinesBroadband && ev.ZeroOne != nil && ev.ZeroOne.K >= 0.5 {
+		v.Cautions = append(v.Cautions, fmt.Sprintf("the spectrum has lines but the 0-1 test gives K = %.2f: weakly chaotic, noisy or phase-diffusing motion", ev.ZeroOne.K))
+	}
+	if ev.Lyapunov != nil && ev.Lyapunov.Unsure && !ev.Lyapunov.Bounded {
+		v.Cautions = append(v.Cautions, "the λ1 fit range is uncertain: "+ev.Lyapunov.Why)
 	}
 	// Confidence: the weighted share of the evidence that supports the regime.
 	var agree, total float64
-	for _, it := range v.Evidence {
+	names := make([]string, 0, len(v.Evidence))
+	for name, it := range v.Evidence {
+		names = append(names, name)
+		if it.PointsTo == "" {
+			continue
+		}
 		total += it.Weight
 		if strings.Contains("|"+it.PointsTo+"|", "|"+v.Regime+"|") {
 			agree += it.Weight
 		}
+	}
+	slices.Sort(names)
+	v.Unused = []string{}
+	for _, name := range names {
+		if it := v.Evidence[name]; !it.Used {
+			v.Unused = append(v.Unused, name+": "+it.Why)
+		}
+	}
+	for _, s := range ev.Skipped {
+		v.Unused = append(v.Unused, s+" (not computed)")
 	}
 	if total > 0 && v.Regime != Undetermined {
 		v.Confidence = agree / total
@@ -241,7 +386,7 @@ func Decide(ev *Evidence) *Verdict {
 		v.Confidence *= 0.8
 		v.Cautions = append(v.Cautions, fmt.Sprintf("too short: %d samples; surrogate tests and dimension estimates need a few thousand", ev.N))
 	}
-	if !ev.Stationary {
+	if !ev.Stationary || drift {
 		v.Confidence *= 0.9
 	}
 	v.Confidence = math.Round(v.Confidence*1000) / 1000
@@ -249,6 +394,26 @@ func Decide(ev *Evidence) *Verdict {
 		v.Cautions = []string{}
 	}
 	return v
+}
+
+// dominantPeriod returns 1/f of the strongest line, or of the strongest non-zero bin of the
+// spectrum when there are no lines; 0 when there is no spectrum.
+func dominantPeriod(l *Lines) float64 {
+	if len(l.Peaks) > 0 && l.Peaks[0].Freq > 0 {
+		return 1 / l.Peaks[0].Freq
+	}
+	if sp := l.Spectrum; sp != nil && len(sp.Power) > 2 {
+		top := 1
+		for i := 2; i < len(sp.Power); i++ {
+			if sp.Power[i] > sp.Power[top] {
+				top = i
+			}
+		}
+		if sp.Freq[top] > 0 {
+			return 1 / sp.Freq[top]
+		}
+	}
+	return 0
 }
 
 func fmtFloats(f []float64) string {
@@ -270,8 +435,10 @@ type Options struct {
 	// with package dimension's defaults unless NoDimension is set.
 	Dimension   *dimension.Result
 	NoDimension bool
-	// Surrogates is the number of IAAFT surrogates (0 means 19: one-sided 5 %).
+	// Surrogates is the number of IAAFT surrogates (0 means DefaultSurrogates).
 	Surrogates int
+	// Alpha is the level of the rank tests (0 means 0.05).
+	Alpha float64
 	// Seed seeds surrogates, the 0-1 test's c and bootstraps.
 	Seed uint64
 	// Lyapunov is λ1 with its interval when the caller estimated it; nil estimates it with
@@ -288,6 +455,12 @@ type Options struct {
 	Progress func(done, total int)
 }
 
+// DefaultSurrogates is the default number of IAAFT surrogates: 39, the fewest for the
+// two-sided time-reversal test at 5 % (Theiler & Prichard 1996); the one-sided prediction
+// test then reaches p = 0.025, so a rejection at 5 % does not hang on the single most extreme
+// surrogate and the verdict is steadier across seeds.
+const DefaultSurrogates = 39
+
 // Analysis is the outcome of Analyze: the verdict and everything it was decided from.
 type Analysis struct {
 	Verdict  *Verdict
@@ -298,25 +471,27 @@ type Analysis struct {
 	Surrogates *SurrogateSet
 }
 
-// Analyze gathers the evidence for x sampled every dt and decides the regime.
+// Analyze gathers the evidence for x sampled every dt and decides the regime. Records of 48
+// samples or more get an answer: a test the record is too short for is listed in
+// Evidence.Skipped (and among the verdict's unused evidence) with the reason.
 func Analyze(x []float64, dt float64, opt Options) (*Analysis, error) {
 	if dt <= 0 {
 		dt = 1
 	}
-	if len(x) < 256 {
-		return nil, fmt.Errorf("regime: %d samples: need at least 256", len(x))
+	if len(x) < 48 {
+		return nil, fmt.Errorf("regime: %d samples: need at least 48", len(x))
 	}
 	if err := series.CheckVariable(x); err != nil {
 		return nil, fmt.Errorf("regime: %w", err)
 	}
 	if opt.Surrogates <= 0 {
-		opt.Surrogates = 19
+		opt.Surrogates = DefaultSurrogates
 	}
 	if opt.MaxAnalysis <= 0 {
 		opt.MaxAnalysis = 20000
 	}
 	threads := max(opt.Threads, 1)
-	ev := &Evidence{N: len(x), Dt: dt, Lyapunov: opt.Lyapunov, Stationary: true}
+	ev := &Evidence{N: len(x), Dt: dt, Lyapunov: opt.Lyapunov, Stationary: true, Alpha: opt.Alpha}
 	an := &Analysis{Evidence: ev, LagMethod: "given", DimMethod: "given"}
 	if sm, err := series.Describe(&series.Series{Values: x, Dt: dt}); err == nil {
 		ev.Stationary = sm.Stationarity.Stationary
@@ -336,6 +511,7 @@ func Analyze(x []float64, dt float64, opt Options) (*Analysis, error) {
 		}
 		if ev.Lag <= 0 {
 			ev.Lag, an.LagMethod = lc.Lag, lc.Method
+			ev.Cautions = append(ev.Cautions, lc.Cautions...)
 		}
 		if ev.Theiler <= 0 {
 			ev.Theiler = embed.DefaultTheiler(lc.ACF)
@@ -344,7 +520,9 @@ func Analyze(x []float64, dt float64, opt Options) (*Analysis, error) {
 	if opt.Embedding == nil {
 		dc, err = embed.ChooseDimension(xa, embed.DimOptions{Lag: ev.Lag, Theiler: ev.Theiler, MaxDim: 8, Threads: threads})
 	}
-	if err == nil && dc != nil {
+	if err != nil {
+		ev.Skipped = append(ev.Skipped, "cao_e2: "+err.Error())
+	} else if dc != nil {
 		finite := 0
 		for _, c := range dc.Cao {
 			if !math.IsNaN(c.E2) && !math.IsInf(c.E2, 0) {
@@ -358,6 +536,7 @@ func Analyze(x []float64, dt float64, opt Options) (*Analysis, error) {
 		}
 		if ev.Dim <= 0 {
 			ev.Dim, an.DimMethod = dc.Dimension, dc.Method
+			ev.Cautions = append(ev.Cautions, dc.Cautions...)
 		}
 	}
 	if ev.Dim <= 0 {
@@ -371,18 +550,48 @@ func Analyze(x []float64, dt float64, opt Options) (*Analysis, error) {
 		ev.Cautions = append(ev.Cautions, fmt.Sprintf("oversampled: the delay is %d samples; the 0-1 test used a subsampling step of %d samples as Gottwald & Melbourne (2009) advise", ev.Lag, sub))
 	}
 	// Spectrum and lines (whole record).
+	skip := func(name string, err error) { ev.Skipped = append(ev.Skipped, name+": "+err.Error()) }
 	if l, err := LineAnalysis(x, dt, LineOptions{}); err == nil {
 		ev.Lines = l
+	} else {
+		skip("lines", err)
+	}
+	// Spectra of the first and last thirds.
+	if d, err := SpectralDrift(x, dt); err == nil {
+		ev.Drift = d
+	} else {
+		skip("spectral_drift", err)
 	}
 	// 0-1 test, subsampled by the delay for flows.
 	if z, err := ZeroOne(x, ZeroOneOptions{Subsample: sub, Seed: opt.Seed}); err == nil {
 		ev.ZeroOne = z
+	} else {
+		skip("zero_one", err)
 	}
 	// Largest Lyapunov exponent.
 	if ev.Lyapunov == nil && !opt.NoLyapunov {
 		r, err := lyapunov.Divergence(xa, lyapunov.Options{Lag: ev.Lag, Dim: ev.Dim, Theiler: ev.Theiler, Dt: dt, Seed: opt.Seed, Threads: threads})
-		if err == nil && r != nil && !math.IsNaN(r.Lambda) {
-			ev.Lyapunov = &Exponent{Value: r.Lambda, Lo: r.Interval[0], Hi: r.Interval[1]}
+		switch {
+		case err == nil && r != nil && !math.IsNaN(r.Lambda):
+			ev.Lyapunov = ExponentOf(r)
+			// Agreement across m: the estimate at m + 1 must agree within 25 % (judgement, as
+			// for ε in lyapunov.CheckRange); otherwise the exponent is uncertain and its
+			// interval is widened to cover both.
+			if e := ev.Lyapunov; !e.Bounded && ev.Dim < 10 {
+				r2, err := lyapunov.Divergence(xa, lyapunov.Options{Lag: ev.Lag, Dim: ev.Dim + 1, Theiler: ev.Theiler, Dt: dt, Seed: opt.Seed, Threads: threads})
+				if err == nil && !math.IsNaN(r2.Lambda) && math.Abs(r2.Lambda-r.Lambda) > 0.25*math.Abs(r.Lambda) {
+					e.Unsure = true
+					e.Lo, e.Hi = math.Min(e.Lo, r2.Lambda), math.Max(e.Hi, r2.Lambda)
+					if e.Why != "" {
+						e.Why += "; "
+					}
+					e.Why += fmt.Sprintf("λ1 = %.3g at m = %d but %.3g at m = %d", r.Lambda, ev.Dim, r2.Lambda, ev.Dim+1)
+				}
+			}
+		case r != nil && errors.Is(err, fit.ErrNoRange):
+			ev.Lyapunov = &Exponent{Value: math.NaN(), Lo: math.NaN(), Hi: math.NaN(), Bounded: true, Why: err.Error()}
+		case err != nil:
+			skip("lyapunov", err)
 		}
 	}
 	// Correlation dimension.
@@ -392,9 +601,11 @@ func Analyze(x []float64, dt float64, opt Options) (*Analysis, error) {
 	if opt.Dimension != nil {
 		ev.Dimension = opt.Dimension
 	} else if opt.NoDimension {
-		// the caller's D2 estimate gave no answer: no D2 evidence
+		ev.Skipped = append(ev.Skipped, "correlation_dimension: the correlation-dimension estimate gave no answer")
 	} else if d, err := dimension.CorrelationDimension(xa[:min(len(xa), 10000)], dimension.Options{Lag: ev.Lag, MaxDim: maxDim, Theiler: ev.Theiler, Seed: opt.Seed, Threads: threads}); err == nil {
 		ev.Dimension = d
+	} else {
+		skip("correlation_dimension", err)
 	}
 	// Surrogate tests.
 	set, err := Surrogates(xa, SurrogateOptions{Method: IAAFT, Count: opt.Surrogates, Seed: opt.Seed, Threads: threads})
@@ -433,40 +644,22 @@ func Analyze(x []float64, dt float64, opt Options) (*Analysis, error) {
 	return an, nil
 }
 
+// ExponentOf turns a divergence estimate into the verdict's λ1: the value, its interval
+// widened to the spread across ε when the fit range is uncertain (lyapunov.RangeCheck), and
+// whether the divergence has an exponential range at all.
+func ExponentOf(r *lyapunov.Result) *Exponent {
+	rc := r.CheckRange()
+	e := &Exponent{Value: r.Lambda, Lo: r.Interval[0], Hi: r.Interval[1], Bounded: rc.Bounded, Unsure: rc.Unsure, Why: strings.Join(rc.Reasons, "; ")}
+	if rc.Unsure {
+		e.Lo, e.Hi = rc.Spread[0], rc.Spread[1]
+	}
+	return e
+}
+
 func maxOf(v []float64) float64 {
 	m := math.Inf(-1)
 	for _, x := range v {
 		m = math.Max(m, x)
 	}
 	return m
-}
-
-// chaosVotes counts the chaos indicators of step 3: the 0-1 test (K ≥ 0.5), λ1 clearly above
-// zero, and D2 saturating.
-func chaosVotes(k float64, lyapPos, saturated bool) int {
-	n := 0
-	if !math.IsNaN(k) && k >= 0.5 {
-		n++
-	}
-	if lyapPos {
-		n++
-	}
-	if saturated {
-		n++
-	}
-	return n
-}
-
-func chaosWhy(k float64, lyapPos, saturated bool) string {
-	var w []string
-	if !math.IsNaN(k) && k >= 0.5 {
-		w = append(w, fmt.Sprintf("0-1 test K = %.2f", k))
-	}
-	if lyapPos {
-		w = append(w, "λ1 > 0 with its interval")
-	}
-	if saturated {
-		w = append(w, "D2 saturates")
-	}
-	return strings.Join(w, ", ")
 }

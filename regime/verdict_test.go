@@ -47,14 +47,14 @@ func TestVerdicts(t *testing.T) {
 		for _, seed := range seeds {
 			x := c.x(seed)
 			threads := 1 + int(seed%2) // threads alternate: the verdict must not depend on them
-			a, err := Analyze(x, c.dt, Options{Seed: seed * 7, Threads: threads})
+			a, err := Analyze(x, c.dt, Options{Seed: seed * 7, Threads: threads, Surrogates: 19})
 			if err != nil {
 				t.Fatalf("%s: %v", c.name, err)
 			}
 			v := a.Verdict
 			t.Logf("%-12s seed %d: %s (%.2f) rule %s; lag %d dim %d", c.name, seed, v.Regime, v.Confidence, v.Rule, a.Evidence.Lag, a.Evidence.Dim)
 			for k, it := range v.Evidence {
-				t.Logf("    %s: %s -> %s", k, it.Detail, it.PointsTo)
+				t.Logf("    %s: %s -> %s [used %v: %s]", k, it.Detail, it.PointsTo, it.Used, it.Why)
 			}
 			if v.Regime != c.want {
 				t.Errorf("%s seed %d: verdict %s, want %s", c.name, seed, v.Regime, c.want)
@@ -81,8 +81,12 @@ func TestAnalyzeThreadIndependent(t *testing.T) {
 
 // TestDecideRule exercises the decision rule directly (package comment).
 func TestDecideRule(t *testing.T) {
-	notRejected := &RankTest{Data: 0.95, Surrogates: []float64{0.9, 1, 1.1}, P: 0.5, Sigmas: 0.5}
-	rejected := &RankTest{Data: 0.1, Surrogates: []float64{0.9, 1, 1.1}, P: 0.05, Sigmas: 10}
+	surr := make([]float64, 19) // 19 surrogates: the one-sided 5 % level (Theiler & Prichard 1996)
+	for i := range surr {
+		surr[i] = 0.9 + 0.01*float64(i)
+	}
+	notRejected := &RankTest{Data: 0.95, Surrogates: surr, P: 0.5, Sigmas: 0.5}
+	rejected := &RankTest{Data: 0.1, Surrogates: surr, P: 0.05, Sigmas: 10}
 	broadband := &Lines{Kind: LinesBroadband}
 	chaos := &ZeroOneResult{K: 0.99}
 	// Step 2: a signal the surrogates cannot tell from the linear null is stochastic whatever

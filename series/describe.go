@@ -48,7 +48,17 @@ type Stationarity struct {
 	MeanShift       float64   `json:"mean_shift"`       // largest |segment mean − mean| in standard errors
 	VarianceShift   float64   `json:"variance_shift"`   // largest |ln(segment var / var)| in standard errors
 	Stationary      bool      `json:"stationary"`       // no shift beyond 4 standard errors
+	// FluctuationRatio is the RMS of the first differences over the last third divided by
+	// that over the first third (0 below 48 samples): far from 1 when the short-term
+	// fluctuations — a seasonal cycle, the noise — grow or shrink with time, as when they
+	// are proportional to a trending level.
+	FluctuationRatio float64 `json:"fluctuation_ratio"`
 }
+
+// FluctuationLimit is the factor by which the short-term fluctuations of the first and last
+// thirds may differ before Describe cautions (judgement: a doubling is far beyond the
+// sampling error of an RMS over a third of a record of 48 or more samples for most records).
+const FluctuationLimit = 2
 
 // shiftLimit is the number of standard errors beyond which a segment is reported as different
 // (about a 1-in-15000 false alarm per segment for Gaussian errors; common practice).
@@ -101,6 +111,13 @@ func Describe(s *Series) (*Summary, error) {
 		}
 	}
 	sm.Stationarity = stationarity(x, m, sd)
+	if n >= 48 {
+		r := fluctuationRatio(x)
+		sm.Stationarity.FluctuationRatio = r
+		if r > FluctuationLimit || (r > 0 && r < 1/FluctuationLimit) {
+			sm.Cautions = append(sm.Cautions, fmt.Sprintf("the short-term fluctuations (first differences) are %.1f times as large in the last third as in the first: the size of the variation changes with time (e.g. a seasonal cycle growing with the level); a log transform may make it steady", r))
+		}
+	}
 	if !sm.Stationarity.Stationary {
 		sm.Cautions = append(sm.Cautions, fmt.Sprintf("the record looks non-stationary: segment means differ by up to %.1f and variances by up to %.1f standard errors of sampling (limit %d); a trend, a drift or a change of regime will bias every estimate — consider --detrend or a shorter --from/--to range", sm.Stationarity.MeanShift, sm.Stationarity.VarianceShift, shiftLimit))
 	}
@@ -174,6 +191,25 @@ func constant(x []float64) bool {
 		}
 	}
 	return true
+}
+
+// fluctuationRatio returns the RMS of the first differences of the last third of x divided
+// by that of the first third (0 when the first third has none).
+func fluctuationRatio(x []float64) float64 {
+	n3 := len(x) / 3
+	rms := func(y []float64) float64 {
+		var s float64
+		for i := 1; i < len(y); i++ {
+			d := y[i] - y[i-1]
+			s += d * d
+		}
+		return math.Sqrt(s / float64(len(y)-1))
+	}
+	a, b := rms(x[:n3]), rms(x[len(x)-n3:])
+	if a == 0 {
+		return 0
+	}
+	return b / a
 }
 
 // meanStd is the mean and population standard deviation of x without scaling (x is already

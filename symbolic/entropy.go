@@ -281,9 +281,14 @@ type Entropies struct {
 	// with L, so this is the estimate nearest the limit that the data support (the stated
 	// extrapolation: the last supported point of the h(L) curve is taken as its plateau).
 	EntropyRate float64
-	// ExcessEntropy is Σ_{L=1}^{L*} (h(L) − h) = H(L*) − L*·h in bits, Grassberger's (1986)
-	// effective measure complexity truncated at L*.
+	// ExcessEntropy is Σ_{L=1}^{Lc} (h(L) − h) = H(Lc) − Lc·h in bits, Grassberger's (1986)
+	// effective measure complexity truncated at Lc = ExcessLength, the shortest length where
+	// h(L) has converged to h: reading it at the longest length would multiply the
+	// undersampling bias of H(L) by L. Never negative (an estimate below 0 is reported as 0
+	// with a caution).
 	ExcessEntropy float64
+	// ExcessLength is the length Lc the excess entropy is read at.
+	ExcessLength int
 	// Extrapolation states in words how EntropyRate and ExcessEntropy were read.
 	Extrapolation string
 	// Cautions are plain-word warnings (lengths the data do not support, slow convergence).
@@ -310,9 +315,36 @@ func Analyze(c *BlockCounter, est Estimator) (*Entropies, error) {
 	}
 	ls := min(sup, lmax)
 	res.RateLength = ls
-	res.EntropyRate = max(res.Rates[ls-1].Bits, 0)
-	res.ExcessEntropy = res.Blocks[ls-1].Bits - float64(ls)*res.EntropyRate
-	res.Extrapolation = fmt.Sprintf("h = h(L*) = H(L*) − H(L*−1) at L* = %d, the longest word length with K^L ≤ N/%d (K = %d, N = %d); E = H(L*) − L*·h", ls, SupportRatio, c.k, n)
+	// No rate may exceed log2 K, the entropy of independent equiprobable letters: a larger
+	// estimate is estimator bias on too few words.
+	top := math.Log2(float64(c.k))
+	clamped := 0
+	for i := range res.Rates {
+		if res.Rates[i].Bits > top {
+			res.Rates[i].Bits = top
+			clamped++
+		}
+	}
+	if clamped > 0 {
+		res.Cautions = append(res.Cautions, fmt.Sprintf("%d block-entropy differences exceeded log2 K = %.3g bits (estimator bias on too few words) and are reported as log2 K", clamped, top))
+	}
+	res.EntropyRate = min(max(res.Rates[ls-1].Bits, 0), top)
+	// Read E where h(L) has converged: the shortest L whose rate is within
+	// max(0.01 bits, 5 %) of h (judgement, the same tolerance as the convergence caution).
+	lc := ls
+	for l := 1; l <= ls; l++ {
+		if res.Rates[l-1].Bits-res.EntropyRate <= math.Max(0.01, 0.05*res.EntropyRate) {
+			lc = l
+			break
+		}
+	}
+	res.ExcessLength = lc
+	res.ExcessEntropy = res.Blocks[lc-1].Bits - float64(lc)*res.EntropyRate
+	if res.ExcessEntropy < 0 {
+		res.Cautions = append(res.Cautions, fmt.Sprintf("the excess entropy estimate %.3g bits is negative (estimation error on %d symbols) and is reported as 0", res.ExcessEntropy, n))
+		res.ExcessEntropy = 0
+	}
+	res.Extrapolation = fmt.Sprintf("h = h(L*) = H(L*) − H(L*−1) at L* = %d, the longest word length with K^L ≤ N/%d (K = %d, N = %d); E = H(Lc) − Lc·h at Lc = %d, the shortest length where h(L) is within max(0.01 bits, 5 %%) of h", ls, SupportRatio, c.k, n, lc)
 	if lmax > sup {
 		res.Cautions = append(res.Cautions, fmt.Sprintf("word lengths above %d are not supported by %d symbols over %d letters (K^L > N/%d): their block entropies are biased low; the entropy rate is read at L = %d", sup, n, c.k, SupportRatio, ls))
 	}
