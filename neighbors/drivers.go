@@ -466,3 +466,165 @@ func (pc *pairCounter) leafPairs(na *node, b int32, kl int, h []int64) {
 		}
 	}
 }
+
+// ReferencePairCounts returns, for every radius radii[k], the number of ordered pairs (i, j)
+// with i one of the reference points refs, j any point with |i − j| > theiler, and distance
+// <= radii[k]: the pair counts of a correlation sum estimated from a sample of reference
+// points against all partners. Each reference point costs one traversal of the tree that
+// counts whole subtrees lying between two consecutive radii without visiting their points and
+// never descends beyond the largest radius, so the cost is about len(refs)·(log N + the
+// number of points near a radius' sphere), not N². The counts are exact integers for the
+// given references and do not depend on threads (<= 0: all cores). Radii may be in any
+// order; negative or NaN radii count nothing. progress may be nil.
+func (ix *Index) ReferencePairCounts(refs []int, radii []float64, theiler int, threads int, progress func(done, total int)) []int64 {
+	out := make([]int64, len(radii))
+	if ix.n < 2 || len(radii) == 0 || len(refs) == 0 {
+		return out
+	}
+	order := make([]int, len(radii))
+	for i := range order {
+		order[i] = i
+	}
+	th := make([]float64, len(radii))
+	for i, r := range radii {
+		th[i] = ix.threshold(r)
+	}
+	sort.SliceStable(order, func(a, b int) bool { return th[order[a]] < th[order[b]] })
+	ts := make([]float64, len(radii))
+	for i, o := range order {
+		ts[i] = th[o]
+	}
+	if ts[len(ts)-1] < 0 {
+		return out
+	}
+	threads = resolveThreads(threads)
+	hists := make([][]int64, threads)
+	for t := range hists {
+		hists[t] = make([]int64, len(ts)+1)
+	}
+	var slot atomic.Int64
+	chunk := max(min(len(refs)/(8*threads), 256), 1)
+	ix.parallel(len(refs), chunk, threads, progress, func(s *Searcher) func(start, end int) {
+		h := hists[int(slot.Add(1)-1)]
+		return func(start, end int) {
+			for _, i := range refs[start:end] {
+				if i < 0 || i >= ix.n {
+					continue
+				}
+				s.binCounts(ix.Coords(i), ts, Query{Self: i, Theiler: theiler}, h)
+			}
+		}
+	})
+	top := make([]int64, len(ts)+1)
+	for _, h := range hists {
+		for b := range top {
+			top[b] += h[b]
+		}
+	}
+	var cum int64
+	for i, o := range order {
+		cum += top[i]
+		out[o] = cum
+	}
+	return out
+}
+
+// binCounts adds to h[b] the number of admissible points whose key lies in bin b of the
+// ascending thresholds ts (bin b: ts[b−1] < key <= ts[b]); points beyond the last threshold are
+// not counted and subtrees beyond it are never visited.
+func (s *Searcher) binCounts(q []float64, ts []float64, opt Query, h []int64) {
+	if !s.setup(q, opt) {
+		return
+	}
+	s.thresh = ts[len(ts)-1]
+	rd := s.rootOffsets()
+	if rd <= s.thresh {
+		s.binNode(0, rd, ts, h)
+	}
+}
+
+func (s *Searcher) binNode(id int32, rd float64, ts []float64, h []int64) {
+	ix := s.ix
+	nd := &ix.nodes[id]
+	if s.excludedNode(nd) {
+		return
+	}
+	K := len(ts)
+	lo := rd // exact for the maximum norm; the incremental Euclidean bound is recomputed
+	if ix.norm == Euclidean {
+		lo = s.bound()
+	}
+	k1 := 0
+	for k1 < K && ts[k1] < lo {
+		k1++
+	}
+	if k1 == K {
+		return
+	}
+	if s.clearNode(nd) {
+		hi := s.farKey(id)
+		k2 := k1
+		for k2 < K && ts[k2] < hi {
+			k2++
+		}
+		if k2 == k1 {
+			h[k1] += int64(nd.end - nd.start)
+			return
+		}
+	}
+	if nd.left < 0 {
+		dim := ix.dim
+		q := s.q[:dim]
+		euclid := ix.norm == Euclidean
+		lo, span, wlo, wspan := s.lo, s.span, s.wlo, s.wspan
+		tmax := s.thresh
+		for p := int(nd.start); p < int(nd.end); p++ {
+			j := int(ix.perm[p])
+			if uint(j-lo) >= span || uint(j-wlo) <= wspan {
+				continue
+			}
+			row := ix.pts[p*dim : p*dim+dim]
+			row = row[:len(q)]
+			var key float64
+			if euclid {
+				for d, v := range q {
+					t := v - row[d]
+					key += float64(t * t)
+				}
+			} else {
+				for d, v := range q {
+					if t := math.Abs(v - row[d]); t > key {
+						key = t
+					}
+				}
+			}
+			if key > tmax {
+				continue
+			}
+			k := k1
+			for ts[k] < key {
+				k++
+			}
+			h[k]++
+		}
+		return
+	}
+	d := nd.split
+	qd := s.q[d]
+	old := s.off[d]
+	for side := 0; side < 2; side++ {
+		child, off := nd.left, fmax(old, qd-nd.lmax)
+		if side == 1 {
+			child, off = nd.right, fmax(old, nd.rmin-qd)
+		}
+		crd := rd
+		if off != old {
+			s.off[d] = off
+			crd = s.childBound(rd, old, off)
+		}
+		if s.exactBound(crd, s.thresh) <= s.thresh {
+			s.binNode(child, crd, ts, h)
+		}
+		s.off[d] = old
+	}
+}
