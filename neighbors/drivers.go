@@ -473,7 +473,8 @@ func (pc *pairCounter) leafPairs(na *node, b int32, kl int, h []int64) {
 // points against all partners. Each reference point costs one traversal of the tree that
 // counts whole subtrees lying between two consecutive radii without visiting their points and
 // never descends beyond the largest radius, so the cost is about len(refs)·(log N + the
-// number of points near a radius' sphere), not N². The counts are exact integers for the
+// number of points near a radius' sphere), not N²; the 2·theiler+1 pairs inside each
+// reference's window are then counted directly and subtracted. The counts are exact integers for the
 // given references and do not depend on threads (<= 0: all cores). Radii may be in any
 // order; negative or NaN radii count nothing. progress may be nil.
 func (ix *Index) ReferencePairCounts(refs []int, radii []float64, theiler int, threads int, progress func(done, total int)) []int64 {
@@ -502,6 +503,7 @@ func (ix *Index) ReferencePairCounts(refs []int, radii []float64, theiler int, t
 	for t := range hists {
 		hists[t] = make([]int64, len(ts)+1)
 	}
+	w := max(theiler, 0)
 	var slot atomic.Int64
 	chunk := max(min(len(refs)/(8*threads), 256), 1)
 	ix.parallel(len(refs), chunk, threads, progress, func(s *Searcher) func(start, end int) {
@@ -511,7 +513,19 @@ func (ix *Index) ReferencePairCounts(refs []int, radii []float64, theiler int, t
 				if i < 0 || i >= ix.n {
 					continue
 				}
-				s.binCounts(ix.Coords(i), ts, Query{Self: i, Theiler: theiler}, h)
+				// All points are counted (kd-tree nodes mix distant times, so the window
+				// would keep every node from being counted whole); the pairs inside the
+				// window, i itself included, are then counted directly and subtracted.
+				a := ix.Coords(i)
+				s.binCounts(a, ts, Query{Self: -1}, h)
+				for j := max(i-w, 0); j <= min(i+w, ix.n-1); j++ {
+					k := 0
+					for key := ix.key(a, ix.Coords(j)); k < len(ts) && ts[k] < key; k++ {
+					}
+					if k < len(ts) {
+						h[k]--
+					}
+				}
 			}
 		}
 	})
@@ -539,38 +553,59 @@ func (s *Searcher) binCounts(q []float64, ts []float64, opt Query, h []int64) {
 	s.thresh = ts[len(ts)-1]
 	rd := s.rootOffsets()
 	if rd <= s.thresh {
-		s.binNode(0, rd, ts, h)
+		s.binNode(0, rd, ts, 0, len(ts), h)
 	}
 }
 
-func (s *Searcher) binNode(id int32, rd float64, ts []float64, h []int64) {
+// boxKeys returns the smallest and largest keys from the query point to node id's box,
+// computed with the operations of Index.key, so they bound every point's key exactly.
+func (s *Searcher) boxKeys(id int32) (lo, hi float64) {
+	dim := s.ix.dim
+	b := s.ix.box[int(id)*2*dim : int(id)*2*dim+2*dim]
+	bl, bh := b[:len(s.q)], b[dim:dim+len(s.q)]
+	if s.ix.norm == Euclidean {
+		for d, v := range s.q {
+			a, c := bl[d]-v, v-bh[d]
+			g := fmax(fmax(a, c), 0)
+			f := fmax(-a, -c)
+			lo += float64(g * g)
+			hi += float64(f * f)
+		}
+		return lo, hi
+	}
+	for d, v := range s.q {
+		a, c := bl[d]-v, v-bh[d]
+		lo = fmax(lo, fmax(a, c))
+		hi = fmax(hi, fmax(-a, -c))
+	}
+	return lo, hi
+}
+
+// binNode counts node id's points into h; the keys of its points lie in bins kmin … kmax (the
+// parent's range: a child's box lies inside its parent's).
+func (s *Searcher) binNode(id int32, rd float64, ts []float64, kmin, kmax int, h []int64) {
 	ix := s.ix
 	nd := &ix.nodes[id]
 	if s.excludedNode(nd) {
 		return
 	}
 	K := len(ts)
-	lo := rd // exact for the maximum norm; the incremental Euclidean bound is recomputed
-	if ix.norm == Euclidean {
-		lo = s.bound()
-	}
-	k1 := 0
-	for k1 < K && ts[k1] < lo {
+	// Tight keys from the node's box (the descent bound rd uses the cells' split planes only).
+	lo, hi := s.boxKeys(id)
+	k1 := kmin
+	for k1 < kmax && ts[k1] < lo {
 		k1++
 	}
 	if k1 == K {
 		return
 	}
-	if s.clearNode(nd) {
-		hi := s.farKey(id)
-		k2 := k1
-		for k2 < K && ts[k2] < hi {
-			k2++
-		}
-		if k2 == k1 {
-			h[k1] += int64(nd.end - nd.start)
-			return
-		}
+	k2 := k1
+	for k2 < kmax && ts[k2] < hi {
+		k2++
+	}
+	if k2 == k1 && s.clearNode(nd) {
+		h[k1] += int64(nd.end - nd.start)
+		return
 	}
 	if nd.left < 0 {
 		dim := ix.dim
@@ -602,7 +637,7 @@ func (s *Searcher) binNode(id int32, rd float64, ts []float64, h []int64) {
 				continue
 			}
 			k := k1
-			for ts[k] < key {
+			for k < k2 && ts[k] < key {
 				k++
 			}
 			h[k]++
@@ -623,7 +658,7 @@ func (s *Searcher) binNode(id int32, rd float64, ts []float64, h []int64) {
 			crd = s.childBound(rd, old, off)
 		}
 		if s.exactBound(crd, s.thresh) <= s.thresh {
-			s.binNode(child, crd, ts, h)
+			s.binNode(child, crd, ts, k1, k2, h)
 		}
 		s.off[d] = old
 	}
