@@ -15,7 +15,11 @@
 //     an unbiased estimate of the all-pairs sum whose statistical error is that of R·N pairs
 //     at small r (Grassberger & Procaccia 1983 already used a subset of reference points).
 //     The result states R in ReferencePoints and says so in Sampling. When R ≥ N every point
-//     is a reference and the count is exact.
+//     is a reference and the count is exact. Each radius stops early: the references are
+//     taken in a random order, and once a radius has as many pairs as one with C = 0.005 would
+//     get from all R (but never before R/16 references), it and every larger radius stop
+//     (Curve.References states the references behind every radius). Large radii, where the
+//     counting costs most and pairs are plentiful, are thus read from fewer references.
 //   - Exact (Options.Exact): all N(N−1)/2 pairs in one dual-tree traversal per m
 //     (neighbors.Index.PairCounts).
 //
@@ -26,7 +30,8 @@
 //
 // Cost as a function of N (for M dimensions, K radii): sampled, O(M·(N log N + R·(log N +
 // n_K))) time, where n_K is the number of points within a tree leaf of one of the K radius
-// spheres around a reference point — for a fixed R it grows about linearly in N, not as N²;
+// spheres around a reference point (about N^(1−1/D2)·C(r) per radius, and the early stop
+// keeps C(r)·R_k bounded) — for a fixed R it grows less than linearly in N, not as N²;
 // exact, O(M·N²) pairs in the worst case (whole subtrees within one radius bin are counted
 // without visiting their points, so attractors of low dimension cost less). Memory O(N·m) for
 // the tree of one dimension at a time plus O(K) per goroutine; no N×N or N×K structure is held.
@@ -117,6 +122,9 @@ type Curve struct {
 	From, To int     `json:"-"`
 	// Takens is the maximum-likelihood dimension at the top of the scaling range.
 	Takens float64 `json:"takens"`
+	// References[k] is the number of reference points C[k] was counted from (sampled sums
+	// only: large radii stop early, see the package comment); nil for exact sums.
+	References []int `json:"references,omitempty"`
 	// Reason says why a curve has no D2 when it is not fitted for a reason other than the
 	// lack of a scaling range (a slope above the embedding dimension).
 	Reason string `json:"reason,omitempty"`
@@ -243,26 +251,23 @@ func CorrelationDimension(x []float64, opt Options) (*Result, error) {
 		}
 		np := ix.Len()
 		res.Points = np
-		var counts []int64
-		var total float64
+		cv := Curve{Dim: m, C: make([]float64, len(radii))}
 		if refs == nil {
-			counts = ix.PairCounts(radii, opt.Theiler, opt.Threads, opt.Progress)
+			cv.Pairs = ix.PairCounts(radii, opt.Theiler, opt.Threads, opt.Progress)
 			w := int64(np - opt.Theiler - 1)
-			total = float64(w) * float64(w+1) / 2
-		} else {
-			counts = ix.ReferencePairCounts(refs, radii, opt.Theiler, opt.Threads, opt.Progress)
-			for _, i := range refs {
-				total += float64(np - 1 - min(i, opt.Theiler) - min(np-1-i, opt.Theiler))
+			total := float64(w) * float64(w+1) / 2
+			for k, c := range cv.Pairs {
+				cv.C[k] = float64(c) / total
 			}
+		} else {
+			cv.Pairs, cv.References = sampledCounts(ix, refs, radii, opt, cv.C)
 		}
-		cv := Curve{Dim: m, C: make([]float64, len(radii)), Pairs: counts}
 		logc := make([]float64, len(radii))
-		for k, c := range counts {
-			cv.C[k] = float64(c) / total
+		for k := range cv.C {
 			logc[k] = math.Log(cv.C[k]) // −Inf for zero counts
 		}
 		cv.Slopes = localSlopes(logr, logc)
-		fitCurve(&cv, logr, logc, counts, rng)
+		fitCurve(&cv, logr, logc, cv.Pairs, rng)
 		if cv.Fitted && cv.D2 > float64(m) {
 			// A correlation dimension cannot exceed the dimension of the space the points
 			// lie in; such a slope is counting noise or too few pairs, not a dimension.
@@ -280,9 +285,10 @@ func CorrelationDimension(x []float64, opt Options) (*Result, error) {
 	return res, nil
 }
 
-// sampleReferences returns r reference points among n delay vectors, ascending: the record is
-// cut into r equal stretches and one point is drawn uniformly from each, with a generator
-// seeded from seed (stratified sampling: every part of the record is represented).
+// sampleReferences returns r reference points among n delay vectors: the record is cut into r
+// equal stretches and one point is drawn uniformly from each (stratified sampling: every part
+// of the record is represented), then the points are put in a random order, so that every
+// prefix of the list is spread over the whole record; both with a generator seeded from seed.
 func sampleReferences(n, r int, seed uint64) []int {
 	rng := rand.New(rand.NewPCG(seed, 0x7265666572656e63)) // second word: a fixed stream id
 	refs := make([]int, r)
@@ -290,7 +296,39 @@ func sampleReferences(n, r int, seed uint64) []int {
 		lo, hi := s*n/r, (s+1)*n/r
 		refs[s] = lo + rng.IntN(max(hi-lo, 1))
 	}
+	rng.Shuffle(len(refs), func(i, j int) { refs[i], refs[j] = refs[j], refs[i] })
 	return refs
+}
+
+// Early stop of the sampled sums: a radius whose pairs from the references counted so far
+// reach those a radius with C = earlyStopC would collect from all R references stops, but
+// not before R/earlyStopFloor references (common practice: the relative error of a
+// correlation sum falls with the number of pairs; the floor keeps a few hundred references
+// behind every radius so that the spread of local densities is still averaged).
+const (
+	earlyStopC     = 0.005
+	earlyStopFloor = 16
+)
+
+// sampledCounts counts the pairs of the sampled references refs (in their random order)
+// against all partners at every radius, the large radii stopping early (see earlyStopC), and
+// writes C[k] = pairs / partners over the references radius k was counted from.
+func sampledCounts(ix *neighbors.Index, refs []int, radii []float64, opt Options, c []float64) ([]int64, []int) {
+	np, w := ix.Len(), opt.Theiler
+	r := len(refs)
+	enough := int64(earlyStopC * float64(r) * float64(np))
+	floor := max(r/earlyStopFloor, 1)
+	stop := func(k, used int, count int64) bool { return used >= floor && count >= enough }
+	counts, used := ix.ReferencePairCountsUntil(refs, radii, w, max(r/64, 16), stop, opt.Threads, opt.Progress)
+	// partners[u] = partners of the first u references.
+	partners := make([]float64, r+1)
+	for u, i := range refs {
+		partners[u+1] = partners[u] + float64(np-1-min(i, w)-min(np-1-i, w))
+	}
+	for k := range c {
+		c[k] = float64(counts[k]) / partners[used[k]]
+	}
+	return counts, used
 }
 
 // pilotPairs is the number of random pairs whose median distance sets the largest radius

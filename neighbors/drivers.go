@@ -663,3 +663,95 @@ func (s *Searcher) binNode(id int32, rd float64, ts []float64, kmin, kmax int, h
 		s.off[d] = old
 	}
 }
+
+// ReferencePairCountsUntil is ReferencePairCounts for ascending radii in which each radius
+// stops early: the references are counted in the order given, in batches of batch references
+// (the last one shorter), and after every batch, starting from the largest radius still
+// counted, a radius k stops when stop(k, used, count) reports true, where used is the number
+// of references counted so far and count the pairs within radii[k] so far (stopping goes
+// down from the top and ends at the first radius that continues, so the radii still counted
+// are always a prefix and no traversal goes beyond the largest of them). It returns the pair
+// counts and, per radius, the number of references, a prefix of refs, they were counted
+// over. Batches are split among threads (<= 0: all cores) and stop decisions are taken
+// between batches on integer totals, so the result does not depend on threads. progress may
+// be nil; it is called with references done.
+func (ix *Index) ReferencePairCountsUntil(refs []int, radii []float64, theiler, batch int, stop func(k, used int, count int64) bool, threads int, progress func(done, total int)) (counts []int64, used []int) {
+	K := len(radii)
+	counts = make([]int64, K)
+	used = make([]int, K)
+	if ix.n < 2 || K == 0 || len(refs) == 0 {
+		return counts, used
+	}
+	ts := make([]float64, K)
+	for k, r := range radii {
+		ts[k] = ix.threshold(r)
+		if k > 0 && !(ts[k] >= ts[k-1]) {
+			panic("neighbors: ReferencePairCountsUntil needs ascending radii")
+		}
+	}
+	active := K
+	for active > 0 && ts[active-1] < 0 {
+		active--
+	}
+	batch = max(batch, 1)
+	threads = resolveThreads(threads)
+	w := max(theiler, 0)
+	hists := make([][]int64, threads)
+	for t := range hists {
+		hists[t] = make([]int64, K+1)
+	}
+	searchers := make([]*Searcher, threads)
+	for t := range searchers {
+		searchers[t] = ix.NewSearcher()
+	}
+	done := 0
+	for start := 0; start < len(refs) && active > 0; start += batch {
+		part := refs[start:min(start+batch, len(refs))]
+		tsa := ts[:active]
+		body := func(t int) {
+			s, h := searchers[t], hists[t]
+			for c := t; c < len(part); c += threads {
+				i := part[c]
+				if i < 0 || i >= ix.n {
+					continue
+				}
+				a := ix.Coords(i)
+				s.binCounts(a, tsa, Query{Self: -1}, h)
+				for j := max(i-w, 0); j <= min(i+w, ix.n-1); j++ {
+					k := 0
+					for key := ix.key(a, ix.Coords(j)); k < len(tsa) && tsa[k] < key; k++ {
+					}
+					if k < len(tsa) {
+						h[k]--
+					}
+				}
+			}
+		}
+		if threads == 1 || len(part) == 1 {
+			body(0)
+		} else {
+			var wg sync.WaitGroup
+			for t := range min(threads, len(part)) {
+				wg.Go(func() { body(t) })
+			}
+			wg.Wait()
+		}
+		var cum int64
+		for k := range active {
+			for _, h := range hists {
+				cum += h[k]
+				h[k] = 0
+			}
+			counts[k] += cum
+			used[k] += len(part)
+		}
+		done += len(part)
+		if progress != nil {
+			progress(done, len(refs))
+		}
+		for active > 0 && stop(active-1, used[active-1], counts[active-1]) {
+			active--
+		}
+	}
+	return counts, used
+}

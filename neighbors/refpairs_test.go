@@ -86,3 +86,41 @@ func TestReferencePairCountsAllPoints(t *testing.T) {
 		}
 	}
 }
+
+// TestReferencePairCountsUntil: every radius' count equals the exact count over the prefix
+// of references it reports (brute force), the early stops happen from the top down, and the
+// result is the same for 1 and 2 threads.
+func TestReferencePairCountsUntil(t *testing.T) {
+	x := lorenzX(3000, 0.01)
+	for _, norm := range []Norm{Euclidean, Max} {
+		ix, err := FromEmbedding(x, 10, 3, norm)
+		if err != nil {
+			t.Fatal(err)
+		}
+		rng := rand.New(rand.NewPCG(9, 10))
+		refs := rng.Perm(ix.Len())[:300]
+		radii := []float64{0.05, 0.2, 0.5, 1, 2, 5, 10, 20}
+		stop := func(k, used int, count int64) bool { return count >= int64(used)*200 }
+		var prev []int64
+		for _, threads := range []int{1, 2} {
+			got, used := ix.ReferencePairCountsUntil(refs, radii, 15, 32, stop, threads, nil)
+			for k := range radii {
+				if k > 0 && used[k] > used[k-1] {
+					t.Fatalf("used %v: not nonincreasing", used)
+				}
+				pts := delay(x, 10, 3)
+				w := bruteRefPairs(pts, 3, norm, refs[:used[k]], radii[k:k+1], 15)
+				if got[k] != w[0] {
+					t.Fatalf("%v threads %d r = %g over %d references: %d, brute force %d", norm, threads, radii[k], used[k], got[k], w[0])
+				}
+			}
+			if used[len(used)-1] == len(refs) || used[0] != len(refs) {
+				t.Errorf("used %v: want the top radii stopped early and the smallest counted over all %d", used, len(refs))
+			}
+			if prev != nil && !slices.Equal(prev, got) {
+				t.Fatalf("threads %d: %v, before %v", threads, got, prev)
+			}
+			prev = got
+		}
+	}
+}
