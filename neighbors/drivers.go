@@ -103,6 +103,10 @@ func (ix *Index) AllKNN(k int, theiler int, lo, hi int, threads int, progress fu
 	n := ix.n
 	idx = make([]int32, n*k)
 	dist = make([]float64, n*k)
+	if k == 1 {
+		ix.allNN1(theiler, lo, hi, threads, progress, idx, dist)
+		return idx, dist
+	}
 	dim := ix.dim
 	ix.parallel(n, chunkFor(n), threads, progress, each(func(s *Searcher, start, end int) {
 		buf := s.nbuf
