@@ -198,4 +198,3 @@ func (b *nn1Batch) scan(id int32) {
 		b.worst = w
 	}
 }
-
