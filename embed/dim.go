@@ -95,6 +95,12 @@ type DimChoice struct {
 // The dimension is the smallest m whose false fraction is below Threshold, or the smallest d
 // with E1(d) > 0.9 and |E1(d+1) − E1(d)| < 0.05·E1(d), whichever is smaller; Method says
 // which rule gave it.
+//
+// Cost as a function of N: for each m, building the tree, O(N log N · m), and one
+// nearest-neighbour search per vector, O(log N) each on low-dimensional attractors
+// (neighbors.Index.AllKNN searches the vectors of one tree leaf together); in all
+// O(M · N log N · m) time and O(N · m) memory for the tree of one dimension at a time, plus
+// the N nearest indices and distances. The fractions do not depend on Threads.
 func ChooseDimension(x []float64, opt DimOptions) (*DimChoice, error) {
 	if opt.Lag < 1 {
 		return nil, fmt.Errorf("dimension: lag %d must be at least 1", opt.Lag)

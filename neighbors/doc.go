@@ -13,6 +13,14 @@
 // (maximum norm) and are exact: lower and upper bounds are computed with the same rounded
 // operations as the point distances, so no pair is ever misclassified near a radius.
 //
+// Costs (N points of dimension m): building, O(N log N · m) (rows are reordered in place, so
+// every pass reads memory sequentially); a k-nearest-neighbour or radius query, O(log N) on
+// low-dimensional data; AllKNN, N queries (for k = 1 the queries of one leaf share one
+// traversal); PairCounts, all N(N−1)/2 pairs in one dual-tree pass, counting whole node pairs
+// that fall between two radii; ReferencePairCounts and ReferencePairCountsUntil, one
+// multi-radius traversal per reference point, R·(log N + points near the radius spheres).
+// Memory is O(N · m) for every index.
+//
 // Theiler's window excludes temporally correlated points: with window w, candidates j with
 // |i−j| ≤ w are ignored when searching around point i (w = 0 excludes only i itself). The test
 // is an integer comparison in the leaf loop.
