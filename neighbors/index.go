@@ -168,10 +168,6 @@ func (b *builder) node(id, start, end, depth int) {
 	for d := range dim {
 		lo[d], hi[d] = math.Inf(1), math.Inf(-1)
 	}
-	mn, mx := int32(math.MaxInt32), int32(-1)
-	for _, i := range ix.perm[start:end] {
-		mn, mx = min(mn, i), max(mx, i)
-	}
 	rows := ix.pts[start*dim : end*dim]
 	for c := 0; c < len(rows); c += dim {
 		row := rows[c : c+dim]
@@ -184,8 +180,12 @@ func (b *builder) node(id, start, end, depth int) {
 			}
 		}
 	}
-	nd.minIdx, nd.maxIdx = mn, mx
 	if end-start <= leafSize {
+		mn, mx := int32(math.MaxInt32), int32(-1)
+		for _, i := range ix.perm[start:end] {
+			mn, mx = min(mn, i), max(mx, i)
+		}
+		nd.minIdx, nd.maxIdx = mn, mx
 		return
 	}
 	split, width := 0, -1.0
@@ -208,6 +208,8 @@ func (b *builder) node(id, start, end, depth int) {
 		b.node(r, mid, end, depth+1)
 	}
 	nd.left, nd.right, nd.split = int32(l), int32(r), int32(split)
+	nd.minIdx = min(ix.nodes[l].minIdx, ix.nodes[r].minIdx) // the children's index ranges
+	nd.maxIdx = max(ix.nodes[l].maxIdx, ix.nodes[r].maxIdx)
 	nd.lmax = ix.box[l*2*dim+dim+split]
 	nd.rmin = ix.box[r*2*dim+split]
 }
