@@ -28,6 +28,13 @@ func sampledVsExact(t testing.TB, name string, x []float64, opt Options, lo, hi 
 		if !(r.D2 >= lo && r.D2 <= hi) {
 			t.Errorf("%s (%s): D2 = %.4f outside [%.2f, %.2f]", name, r.Sampling, r.D2, lo, hi)
 		}
+		// No correlation dimension exceeds the embedding dimension (exact: C(r) of points in
+		// R^m grows at most as r^m at small r).
+		for _, c := range r.Curves {
+			if c.Fitted && (c.D2 > float64(c.Dim) || c.Hi > float64(c.Dim)) {
+				t.Errorf("%s m = %d: D2 %.3f, interval up to %.3f", name, c.Dim, c.D2, c.Hi)
+			}
+		}
 	}
 	return s, e, ts, te
 }
