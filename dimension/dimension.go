@@ -11,15 +11,15 @@
 //   - Sampled (the default): R reference points (Options.ReferencePoints, default
 //     DefaultReferencePoints), one drawn uniformly at random from each of R equal stretches of
 //     the record with the seed, each against all N partners outside its window
-//     (neighbors.Index.ReferencePairCounts). C(r) is the fraction of those R·N pairs within r:
-//     an unbiased estimate of the all-pairs sum whose statistical error is that of R·N pairs
-//     at small r (Grassberger & Procaccia 1983 already used a subset of reference points).
-//     The result states R in ReferencePoints and says so in Sampling. When R ≥ N every point
-//     is a reference and the count is exact. Each radius stops early: the references are
-//     taken in a random order, and once a radius has as many pairs as one with C = 0.005 would
-//     get from all R (but never before R/16 references), it and every larger radius stop
-//     (Curve.References states the references behind every radius). Large radii, where the
-//     counting costs most and pairs are plentiful, are thus read from fewer references.
+//     (neighbors.Index.ReferencePairCountsUntil). C(r) is the fraction of those pairs within
+//     r: an unbiased estimate of the all-pairs sum, whose error comes from the spread of the
+//     local densities over the references rather than from the number of pairs. The result
+//     states R in ReferencePoints and says so in Sampling; when R ≥ N every point is a
+//     reference and the count is exact. Each radius stops early: the references are taken in
+//     a random order, and once a radius has as many pairs as one with C = 0.005 would get from
+//     all R, or 2·10^6 pairs if fewer (but never before R/16 references), it and every larger
+//     radius stop (Curve.References states the references behind every radius). Large radii,
+//     where counting costs most and pairs are plentiful, are thus read from fewer references.
 //   - Exact (Options.Exact): all N(N−1)/2 pairs in one dual-tree traversal per m
 //     (neighbors.Index.PairCounts).
 //
@@ -301,12 +301,14 @@ func sampleReferences(n, r int, seed uint64) []int {
 }
 
 // Early stop of the sampled sums: a radius whose pairs from the references counted so far
-// reach those a radius with C = earlyStopC would collect from all R references stops, but
-// not before R/earlyStopFloor references (common practice: the relative error of a
-// correlation sum falls with the number of pairs; the floor keeps a few hundred references
-// behind every radius so that the spread of local densities is still averaged).
+// reach those a radius with C = earlyStopC would collect from all R references, or
+// earlyStopPairs, whichever is fewer, stops, but not before R/earlyStopFloor references
+// (common practice: the relative error of a correlation sum falls with the number of pairs,
+// and a few million pairs put the counting error near 0.1 %; the floor keeps a few hundred
+// references behind every radius so that the spread of local densities is still averaged).
 const (
 	earlyStopC     = 0.005
+	earlyStopPairs = 2_000_000
 	earlyStopFloor = 16
 )
 
@@ -316,7 +318,7 @@ const (
 func sampledCounts(ix *neighbors.Index, refs []int, radii []float64, opt Options, c []float64) ([]int64, []int) {
 	np, w := ix.Len(), opt.Theiler
 	r := len(refs)
-	enough := int64(earlyStopC * float64(r) * float64(np))
+	enough := min(int64(earlyStopC*float64(r)*float64(np)), earlyStopPairs)
 	floor := max(r/earlyStopFloor, 1)
 	stop := func(k, used int, count int64) bool { return used >= floor && count >= enough }
 	counts, used := ix.ReferencePairCountsUntil(refs, radii, w, max(r/64, 16), stop, opt.Threads, opt.Progress)
