@@ -163,12 +163,14 @@ func (b *nn1Batch) scan(id int32) {
 			row = row[:len(q)]
 			var key float64
 			if euclid {
+				// The whole sum, then one comparison: cheaper than a branch per coordinate
+				// in the few dimensions of an embedding, and the same key.
 				for d, v := range q {
 					t := v - row[d]
 					key += float64(t * t)
-					if key > bk {
-						continue points
-					}
+				}
+				if key > bk {
+					continue points
 				}
 			} else {
 				for d, v := range q {
