@@ -5,7 +5,7 @@
 // not depend on the number of goroutines.
 //
 // The tree is a flat-array kd-tree: the points are copied contiguously in tree order, an int32
-// permutation maps tree positions to the caller's numbering, leaves hold about 16 points and
+// permutation maps tree positions to the caller's numbering, leaves hold at most 32 points and
 // every node splits its points at the median of its widest dimension. Each node keeps its tight
 // bounding box and the range of original indices it contains, so whole subtrees can be pruned,
 // counted without visiting their points, or skipped when every point in them is excluded.

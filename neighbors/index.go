@@ -35,8 +35,10 @@ type Neighbor struct {
 	Dist  float64
 }
 
-// leafSize is the largest number of points in a leaf bucket.
-const leafSize = 16
+// leafSize is the largest number of points in a leaf bucket (32 measured faster than 16 and 8
+// for the all-points nearest-neighbour search and the sampled pair counts on 3·10^5 Lorenz
+// vectors).
+const leafSize = 32
 
 // node is one kd-tree node. Points of the subtree occupy tree positions [start, end).
 type node struct {
