@@ -4,10 +4,37 @@
 // finds (with a bootstrap interval), whether D2 saturates as m grows, and the Takens
 // maximum-likelihood estimate as a second opinion.
 //
-// C(r) at dimension m is the fraction of pairs of delay vectors i < j with j − i > w (the
-// Theiler window) whose maximum-norm (by default) distance is at most r. All radii are counted
-// in one traversal of the neighbour index per m (neighbors.Index.PairCounts), so the cost is
-// one pair-counting pass per dimension, not one query per radius.
+// C(r) at dimension m is the fraction of pairs of delay vectors i ≠ j with |j − i| > w (the
+// Theiler window) whose maximum-norm (by default) distance is at most r. Two ways of counting
+// are offered:
+//
+//   - Sampled (the default): R reference points (Options.ReferencePoints, default
+//     DefaultReferencePoints), one drawn uniformly at random from each of R equal stretches of
+//     the record with the seed, each against all N partners outside its window
+//     (neighbors.Index.ReferencePairCountsUntil). C(r) is the fraction of those pairs within
+//     r: an unbiased estimate of the all-pairs sum, whose error comes from the spread of the
+//     local densities over the references rather than from the number of pairs. The result
+//     states R in ReferencePoints and says so in Sampling; when R ≥ N every point is a
+//     reference and the count is exact. Each radius stops early: the references are taken in
+//     a random order, and once a radius has as many pairs as one with C = 0.005 would get from
+//     all R, or 2·10^6 pairs if fewer (but never before R/16 references), it and every larger
+//     radius stop (Curve.References states the references behind every radius). Large radii,
+//     where counting costs most and pairs are plentiful, are thus read from fewer references.
+//   - Exact (Options.Exact): all N(N−1)/2 pairs in one dual-tree traversal per m
+//     (neighbors.Index.PairCounts).
+//
+// With the automatic radii, pairs are only counted up to the radius where C(r) passes ½ at the
+// largest m (the median distance of 4096 random pairs, times 1.5, rounded up to the grid):
+// radii above it never enter the fit (see the scaling-range rule below), and the large radii
+// are where pair counting costs most.
+//
+// Cost as a function of N (for M dimensions, K radii): sampled, O(M·(N log N + R·(log N +
+// n_K))) time, where n_K is the number of points within a tree leaf of one of the K radius
+// spheres around a reference point (about N^(1−1/D2)·C(r) per radius, and the early stop
+// keeps C(r)·R_k bounded) — for a fixed R it grows less than linearly in N, not as N²;
+// exact, O(M·N²) pairs in the worst case (whole subtrees within one radius bin are counted
+// without visiting their points, so attractors of low dimension cost less). Memory O(N·m) for
+// the tree of one dimension at a time plus O(K) per goroutine; no N×N or N×K structure is held.
 //
 // The decision rules, each shown in the result:
 //   - Scaling range: the longest range of radii whose local slopes of log C against log r are
@@ -62,7 +89,20 @@ type Options struct {
 	Threads int
 	// Progress, when not nil, is called with (done, total) over each dimension's pass.
 	Progress func(done, total int)
+	// ReferencePoints is the number of reference points of the sampled correlation sums (0
+	// means DefaultReferencePoints); when it is at least the number of delay vectors every
+	// point is a reference. Ignored when Exact is set.
+	ReferencePoints int
+	// Exact counts all pairs (cost O(N²) per dimension) instead of sampling reference points.
+	Exact bool
 }
+
+// DefaultReferencePoints is the default number of sampled reference points: 4000 against all
+// N partners gives 4000·N pairs, about 4·10^8 at N = 10^5, enough for counts of hundreds of
+// pairs at radii where C(r) is near 10^−6 (common practice: the statistical error of a
+// correlation sum is governed by the number of pairs counted, and a few thousand reference
+// points suffice for dimensions below about 5).
+const DefaultReferencePoints = 4000
 
 // Curve is the correlation sum at one embedding dimension.
 type Curve struct {
@@ -82,6 +122,12 @@ type Curve struct {
 	From, To int     `json:"-"`
 	// Takens is the maximum-likelihood dimension at the top of the scaling range.
 	Takens float64 `json:"takens"`
+	// References[k] is the number of reference points C[k] was counted from (sampled sums
+	// only: large radii stop early, see the package comment); nil for exact sums.
+	References []int `json:"references,omitempty"`
+	// Reason says why a curve has no D2 when it is not fitted for a reason other than the
+	// lack of a scaling range (a slope above the embedding dimension).
+	Reason string `json:"reason,omitempty"`
 }
 
 // Result is the outcome of CorrelationDimension.
@@ -101,7 +147,13 @@ type Result struct {
 	Lag, Theiler, MaxDim int
 	Norm                 string
 	// Points is the number of delay vectors at the largest dimension.
-	Points   int
+	Points int
+	// ReferencePoints is the number of reference points the correlation sums were counted
+	// from: Points when every point was a reference (exact), fewer when sampled.
+	ReferencePoints int `json:"reference_points"`
+	// Sampling says in words how the pairs were counted (sampled reference points or all
+	// pairs), for the page and the JSON.
+	Sampling string `json:"sampling"`
 	Cautions []string
 }
 
@@ -164,12 +216,34 @@ func CorrelationDimension(x []float64, opt Options) (*Result, error) {
 			return nil, fmt.Errorf("correlation dimension: need at least 5 positive radii, got %d", len(radii))
 		}
 	}
-	res := &Result{Radii: radii, Lag: opt.Lag, Theiler: opt.Theiler, MaxDim: opt.MaxDim, Norm: normName}
+	rng := rand.New(rand.NewPCG(opt.Seed, 0x64696d656e73696f))
+	npMax := n - (opt.MaxDim-1)*opt.Lag
+	if opt.Radii == nil {
+		radii = truncateRadii(x, opt.Lag, opt.MaxDim, opt.Theiler, opt.Euclidean, radii, opt.Seed)
+	}
+	var refs []int
+	nrefs := npMax
+	if !opt.Exact {
+		r := opt.ReferencePoints
+		if r <= 0 {
+			r = DefaultReferencePoints
+		}
+		if r < npMax {
+			refs = sampleReferences(npMax, r, opt.Seed)
+			nrefs = r
+		}
+	}
+	res := &Result{Radii: radii, Lag: opt.Lag, Theiler: opt.Theiler, MaxDim: opt.MaxDim, Norm: normName,
+		ReferencePoints: nrefs}
+	if refs != nil {
+		res.Sampling = fmt.Sprintf("sampled: %d reference points (one drawn at random from each of %d equal stretches of the record, seed %d) against all %d partners outside the Theiler window", nrefs, nrefs, opt.Seed, npMax)
+	} else {
+		res.Sampling = "exact: all pairs outside the Theiler window"
+	}
 	logr := make([]float64, len(radii))
 	for k, r := range radii {
 		logr[k] = math.Log(r)
 	}
-	rng := rand.New(rand.NewPCG(opt.Seed, 0x64696d656e73696f))
 	for m := 1; m <= opt.MaxDim; m++ {
 		ix, err := neighbors.FromEmbedding(x, opt.Lag, m, norm)
 		if err != nil {
@@ -177,23 +251,127 @@ func CorrelationDimension(x []float64, opt Options) (*Result, error) {
 		}
 		np := ix.Len()
 		res.Points = np
-		counts := ix.PairCounts(radii, opt.Theiler, opt.Threads, opt.Progress)
-		w := int64(np - opt.Theiler - 1)
-		total := float64(w) * float64(w+1) / 2
-		cv := Curve{Dim: m, C: make([]float64, len(radii)), Pairs: counts}
+		cv := Curve{Dim: m, C: make([]float64, len(radii))}
+		if refs == nil {
+			cv.Pairs = ix.PairCounts(radii, opt.Theiler, opt.Threads, opt.Progress)
+			w := int64(np - opt.Theiler - 1)
+			total := float64(w) * float64(w+1) / 2
+			for k, c := range cv.Pairs {
+				cv.C[k] = float64(c) / total
+			}
+		} else {
+			cv.Pairs, cv.References = sampledCounts(ix, refs, radii, opt, cv.C)
+		}
 		logc := make([]float64, len(radii))
-		for k, c := range counts {
-			cv.C[k] = float64(c) / total
+		for k := range cv.C {
 			logc[k] = math.Log(cv.C[k]) // −Inf for zero counts
 		}
 		cv.Slopes = localSlopes(logr, logc)
-		fitCurve(&cv, logr, logc, counts, rng)
+		fitCurve(&cv, logr, logc, cv.Pairs, rng)
+		if cv.Fitted && cv.D2 > float64(m) {
+			// A correlation dimension cannot exceed the dimension of the space the points
+			// lie in; such a slope is counting noise or too few pairs, not a dimension.
+			cv.Reason = fmt.Sprintf("the fitted slope %.3g exceeds the embedding dimension %d: no dimension can be read from it", cv.D2, m)
+			cv.Fitted, cv.D2, cv.Lo, cv.Hi, cv.Takens = false, 0, 0, 0, 0
+		}
+		if cv.Fitted {
+			cv.Hi = math.Min(cv.Hi, float64(m)) // the interval does not reach above m either
+		}
 		res.Curves = append(res.Curves, cv)
 	}
 	if err := res.decide(n); err != nil {
 		return res, err
 	}
 	return res, nil
+}
+
+// sampleReferences returns r reference points among n delay vectors: the record is cut into r
+// equal stretches and one point is drawn uniformly from each (stratified sampling: every part
+// of the record is represented), then the points are put in a random order, so that every
+// prefix of the list is spread over the whole record; both with a generator seeded from seed.
+func sampleReferences(n, r int, seed uint64) []int {
+	rng := rand.New(rand.NewPCG(seed, 0x7265666572656e63)) // second word: a fixed stream id
+	refs := make([]int, r)
+	for s := range refs {
+		lo, hi := s*n/r, (s+1)*n/r
+		refs[s] = lo + rng.IntN(max(hi-lo, 1))
+	}
+	rng.Shuffle(len(refs), func(i, j int) { refs[i], refs[j] = refs[j], refs[i] })
+	return refs
+}
+
+// Early stop of the sampled sums: a radius whose pairs from the references counted so far
+// reach those a radius with C = earlyStopC would collect from all R references, or
+// earlyStopPairs, whichever is fewer, stops, but not before R/earlyStopFloor references
+// (common practice: the relative error of a correlation sum falls with the number of pairs,
+// and a few million pairs put the counting error near 0.1 %; the floor keeps a few hundred
+// references behind every radius so that the spread of local densities is still averaged).
+const (
+	earlyStopC     = 0.005
+	earlyStopPairs = 2_000_000
+	earlyStopFloor = 16
+)
+
+// sampledCounts counts the pairs of the sampled references refs (in their random order)
+// against all partners at every radius, the large radii stopping early (see earlyStopC), and
+// writes C[k] = pairs / partners over the references radius k was counted from.
+func sampledCounts(ix *neighbors.Index, refs []int, radii []float64, opt Options, c []float64) ([]int64, []int) {
+	np, w := ix.Len(), opt.Theiler
+	r := len(refs)
+	enough := min(int64(earlyStopC*float64(r)*float64(np)), earlyStopPairs)
+	floor := max(r/earlyStopFloor, 1)
+	stop := func(k, used int, count int64) bool { return used >= floor && count >= enough }
+	counts, used := ix.ReferencePairCountsUntil(refs, radii, w, max(r/64, 16), stop, opt.Threads, opt.Progress)
+	// partners[u] = partners of the first u references.
+	partners := make([]float64, r+1)
+	for u, i := range refs {
+		partners[u+1] = partners[u] + float64(np-1-min(i, w)-min(np-1-i, w))
+	}
+	for k := range c {
+		c[k] = float64(counts[k]) / partners[used[k]]
+	}
+	return counts, used
+}
+
+// pilotPairs is the number of random pairs whose median distance sets the largest radius
+// counted (the median of 4096 draws lies within about ±2 % in probability of the true one).
+const pilotPairs = 4096
+
+// truncateRadii drops the automatic radii above the one where C(r) has surely passed ½ at the
+// largest dimension: the first radius at least 1.5 times the median distance of pilotPairs
+// random pairs outside the Theiler window (at least 8 radii are kept). C(r) decreases with m at
+// every r, so at every smaller m C has passed ½ there too, and radii where C > ½ never enter
+// the scaling range (fitCurve).
+func truncateRadii(x []float64, lag, m, theiler int, euclid bool, radii []float64, seed uint64) []float64 {
+	np := len(x) - (m-1)*lag
+	rng := rand.New(rand.NewPCG(seed, 0x70696c6f74)) // second word: a fixed stream id
+	d := make([]float64, 0, pilotPairs)
+	for len(d) < pilotPairs {
+		i, j := rng.IntN(np), rng.IntN(np)
+		if j-i <= theiler && i-j <= theiler {
+			continue
+		}
+		var s float64
+		for c := range m {
+			t := x[i+c*lag] - x[j+c*lag]
+			if euclid {
+				s += t * t
+			} else {
+				s = math.Max(s, math.Abs(t))
+			}
+		}
+		if euclid {
+			s = math.Sqrt(s)
+		}
+		d = append(d, s)
+	}
+	slices.Sort(d)
+	stop := 1.5 * d[len(d)/2]
+	k := 0
+	for k < len(radii)-1 && radii[k] < stop {
+		k++
+	}
+	return radii[:max(k+1, min(8, len(radii)))]
 }
 
 // localSlopes returns the three-point least-squares slope at every radius (NaN at the ends and

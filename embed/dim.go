@@ -109,6 +109,12 @@ type DimChoice struct {
 // dimension), the dimension is where the false fraction and E1 stop improving
 // (DimNoiseLimited, with a caution). A trended record (|correlation with time| >
 // TrendLimit) never gets m = 1.
+//
+// Cost as a function of N: for each m, building the tree, O(N log N · m), and one
+// nearest-neighbour search per vector, O(log N) each on low-dimensional attractors
+// (neighbors.Index.AllKNN searches the vectors of one tree leaf together); in all
+// O(M · N log N · m) time and O(N · m) memory for the tree of one dimension at a time, plus
+// the N nearest indices and distances. The fractions do not depend on Threads.
 func ChooseDimension(x []float64, opt DimOptions) (*DimChoice, error) {
 	c, err := dimCurves(x, opt)
 	if err != nil {

@@ -22,6 +22,10 @@
 // The exponents of the model systems from their equations (Benettin et al. 1980), which the
 // estimators here are tested against, live in package models.
 //
+// Cost: Divergence follows at most DefaultReferencePoints sampled reference points, so after
+// the O(N log N · m) index its cost does not grow with N (see Divergence); Spectrum fits one
+// local map per point along the orbit it follows.
+//
 // Units: exponents per sample are in nats per step (natural logarithm); multiplied by 1/Dt
 // they are in nats per time unit. Divide by ln 2 for bits.
 //

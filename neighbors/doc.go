@@ -5,13 +5,21 @@
 // not depend on the number of goroutines.
 //
 // The tree is a flat-array kd-tree: the points are copied contiguously in tree order, an int32
-// permutation maps tree positions to the caller's numbering, leaves hold about 16 points and
+// permutation maps tree positions to the caller's numbering, leaves hold at most 32 points and
 // every node splits its points at the median of its widest dimension. Each node keeps its tight
 // bounding box and the range of original indices it contains, so whole subtrees can be pruned,
 // counted without visiting their points, or skipped when every point in them is excluded.
 // Searches prune on squared distances (Euclidean norm) or on the largest coordinate difference
 // (maximum norm) and are exact: lower and upper bounds are computed with the same rounded
 // operations as the point distances, so no pair is ever misclassified near a radius.
+//
+// Costs (N points of dimension m): building, O(N log N · m) (rows are reordered in place, so
+// every pass reads memory sequentially); a k-nearest-neighbour or radius query, O(log N) on
+// low-dimensional data; AllKNN, N queries (for k = 1 the queries of one leaf share one
+// traversal); PairCounts, all N(N−1)/2 pairs in one dual-tree pass, counting whole node pairs
+// that fall between two radii; ReferencePairCounts and ReferencePairCountsUntil, one
+// multi-radius traversal per reference point, R·(log N + points near the radius spheres).
+// Memory is O(N · m) for every index.
 //
 // Theiler's window excludes temporally correlated points: with window w, candidates j with
 // |i−j| ≤ w are ignored when searching around point i (w = 0 excludes only i itself). The test

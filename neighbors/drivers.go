@@ -103,6 +103,10 @@ func (ix *Index) AllKNN(k int, theiler int, lo, hi int, threads int, progress fu
 	n := ix.n
 	idx = make([]int32, n*k)
 	dist = make([]float64, n*k)
+	if k == 1 {
+		ix.allNN1(theiler, lo, hi, threads, progress, idx, dist)
+		return idx, dist
+	}
 	dim := ix.dim
 	ix.parallel(n, chunkFor(n), threads, progress, each(func(s *Searcher, start, end int) {
 		buf := s.nbuf
@@ -465,4 +469,293 @@ func (pc *pairCounter) leafPairs(na *node, b int32, kl int, h []int64) {
 			}
 		}
 	}
+}
+
+// ReferencePairCounts returns, for every radius radii[k], the number of ordered pairs (i, j)
+// with i one of the reference points refs, j any point with |i − j| > theiler, and distance
+// <= radii[k]: the pair counts of a correlation sum estimated from a sample of reference
+// points against all partners. Each reference point costs one traversal of the tree that
+// counts whole subtrees lying between two consecutive radii without visiting their points and
+// never descends beyond the largest radius, so the cost is about len(refs)·(log N + the
+// number of points near a radius' sphere), not N²; the 2·theiler+1 pairs inside each
+// reference's window are then counted directly and subtracted. The counts are exact integers for the
+// given references and do not depend on threads (<= 0: all cores). Radii may be in any
+// order; negative or NaN radii count nothing. progress may be nil.
+func (ix *Index) ReferencePairCounts(refs []int, radii []float64, theiler int, threads int, progress func(done, total int)) []int64 {
+	out := make([]int64, len(radii))
+	if ix.n < 2 || len(radii) == 0 || len(refs) == 0 {
+		return out
+	}
+	order := make([]int, len(radii))
+	for i := range order {
+		order[i] = i
+	}
+	th := make([]float64, len(radii))
+	for i, r := range radii {
+		th[i] = ix.threshold(r)
+	}
+	sort.SliceStable(order, func(a, b int) bool { return th[order[a]] < th[order[b]] })
+	ts := make([]float64, len(radii))
+	for i, o := range order {
+		ts[i] = th[o]
+	}
+	if ts[len(ts)-1] < 0 {
+		return out
+	}
+	threads = resolveThreads(threads)
+	hists := make([][]int64, threads)
+	for t := range hists {
+		hists[t] = make([]int64, len(ts)+1)
+	}
+	w := max(theiler, 0)
+	var slot atomic.Int64
+	chunk := max(min(len(refs)/(8*threads), 256), 1)
+	ix.parallel(len(refs), chunk, threads, progress, func(s *Searcher) func(start, end int) {
+		h := hists[int(slot.Add(1)-1)]
+		return func(start, end int) {
+			for _, i := range refs[start:end] {
+				if i < 0 || i >= ix.n {
+					continue
+				}
+				// All points are counted (kd-tree nodes mix distant times, so the window
+				// would keep every node from being counted whole); the pairs inside the
+				// window, i itself included, are then counted directly and subtracted.
+				a := ix.Coords(i)
+				s.binCounts(a, ts, Query{Self: -1}, h)
+				for j := max(i-w, 0); j <= min(i+w, ix.n-1); j++ {
+					k := 0
+					for key := ix.key(a, ix.Coords(j)); k < len(ts) && ts[k] < key; k++ {
+					}
+					if k < len(ts) {
+						h[k]--
+					}
+				}
+			}
+		}
+	})
+	top := make([]int64, len(ts)+1)
+	for _, h := range hists {
+		for b := range top {
+			top[b] += h[b]
+		}
+	}
+	var cum int64
+	for i, o := range order {
+		cum += top[i]
+		out[o] = cum
+	}
+	return out
+}
+
+// binCounts adds to h[b] the number of admissible points whose key lies in bin b of the
+// ascending thresholds ts (bin b: ts[b−1] < key <= ts[b]); points beyond the last threshold are
+// not counted and subtrees beyond it are never visited.
+func (s *Searcher) binCounts(q []float64, ts []float64, opt Query, h []int64) {
+	if !s.setup(q, opt) {
+		return
+	}
+	s.thresh = ts[len(ts)-1]
+	rd := s.rootOffsets()
+	if rd <= s.thresh {
+		s.binNode(0, rd, ts, 0, len(ts), h)
+	}
+}
+
+// boxKeys returns the smallest and largest keys from the query point to node id's box,
+// computed with the operations of Index.key, so they bound every point's key exactly.
+func (s *Searcher) boxKeys(id int32) (lo, hi float64) {
+	dim := s.ix.dim
+	b := s.ix.box[int(id)*2*dim : int(id)*2*dim+2*dim]
+	bl, bh := b[:len(s.q)], b[dim:dim+len(s.q)]
+	if s.ix.norm == Euclidean {
+		for d, v := range s.q {
+			a, c := bl[d]-v, v-bh[d]
+			g := fmax(fmax(a, c), 0)
+			f := fmax(-a, -c)
+			lo += float64(g * g)
+			hi += float64(f * f)
+		}
+		return lo, hi
+	}
+	for d, v := range s.q {
+		a, c := bl[d]-v, v-bh[d]
+		lo = fmax(lo, fmax(a, c))
+		hi = fmax(hi, fmax(-a, -c))
+	}
+	return lo, hi
+}
+
+// binNode counts node id's points into h; the keys of its points lie in bins kmin … kmax (the
+// parent's range: a child's box lies inside its parent's).
+func (s *Searcher) binNode(id int32, rd float64, ts []float64, kmin, kmax int, h []int64) {
+	ix := s.ix
+	nd := &ix.nodes[id]
+	if s.excludedNode(nd) {
+		return
+	}
+	K := len(ts)
+	// Tight keys from the node's box (the descent bound rd uses the cells' split planes only).
+	lo, hi := s.boxKeys(id)
+	k1 := kmin
+	for k1 < kmax && ts[k1] < lo {
+		k1++
+	}
+	if k1 == K {
+		return
+	}
+	k2 := k1
+	for k2 < kmax && ts[k2] < hi {
+		k2++
+	}
+	if k2 == k1 && s.clearNode(nd) {
+		h[k1] += int64(nd.end - nd.start)
+		return
+	}
+	if nd.left < 0 {
+		dim := ix.dim
+		q := s.q[:dim]
+		euclid := ix.norm == Euclidean
+		lo, span, wlo, wspan := s.lo, s.span, s.wlo, s.wspan
+		tmax := s.thresh
+		for p := int(nd.start); p < int(nd.end); p++ {
+			j := int(ix.perm[p])
+			if uint(j-lo) >= span || uint(j-wlo) <= wspan {
+				continue
+			}
+			row := ix.pts[p*dim : p*dim+dim]
+			row = row[:len(q)]
+			var key float64
+			if euclid {
+				for d, v := range q {
+					t := v - row[d]
+					key += float64(t * t)
+				}
+			} else {
+				for d, v := range q {
+					if t := math.Abs(v - row[d]); t > key {
+						key = t
+					}
+				}
+			}
+			if key > tmax {
+				continue
+			}
+			k := k1
+			for k < k2 && ts[k] < key {
+				k++
+			}
+			h[k]++
+		}
+		return
+	}
+	d := nd.split
+	qd := s.q[d]
+	old := s.off[d]
+	for side := 0; side < 2; side++ {
+		child, off := nd.left, fmax(old, qd-nd.lmax)
+		if side == 1 {
+			child, off = nd.right, fmax(old, nd.rmin-qd)
+		}
+		crd := rd
+		if off != old {
+			s.off[d] = off
+			crd = s.childBound(rd, old, off)
+		}
+		if s.exactBound(crd, s.thresh) <= s.thresh {
+			s.binNode(child, crd, ts, k1, k2, h)
+		}
+		s.off[d] = old
+	}
+}
+
+// ReferencePairCountsUntil is ReferencePairCounts for ascending radii in which each radius
+// stops early: the references are counted in the order given, in batches of batch references
+// (the last one shorter), and after every batch, starting from the largest radius still
+// counted, a radius k stops when stop(k, used, count) reports true, where used is the number
+// of references counted so far and count the pairs within radii[k] so far (stopping goes
+// down from the top and ends at the first radius that continues, so the radii still counted
+// are always a prefix and no traversal goes beyond the largest of them). It returns the pair
+// counts and, per radius, the number of references, a prefix of refs, they were counted
+// over. Batches are split among threads (<= 0: all cores) and stop decisions are taken
+// between batches on integer totals, so the result does not depend on threads. progress may
+// be nil; it is called with references done.
+func (ix *Index) ReferencePairCountsUntil(refs []int, radii []float64, theiler, batch int, stop func(k, used int, count int64) bool, threads int, progress func(done, total int)) (counts []int64, used []int) {
+	K := len(radii)
+	counts = make([]int64, K)
+	used = make([]int, K)
+	if ix.n < 2 || K == 0 || len(refs) == 0 {
+		return counts, used
+	}
+	ts := make([]float64, K)
+	for k, r := range radii {
+		ts[k] = ix.threshold(r)
+		if k > 0 && !(ts[k] >= ts[k-1]) {
+			panic("neighbors: ReferencePairCountsUntil needs ascending radii")
+		}
+	}
+	active := K
+	for active > 0 && ts[active-1] < 0 {
+		active--
+	}
+	batch = max(batch, 1)
+	threads = resolveThreads(threads)
+	w := max(theiler, 0)
+	hists := make([][]int64, threads)
+	for t := range hists {
+		hists[t] = make([]int64, K+1)
+	}
+	searchers := make([]*Searcher, threads)
+	for t := range searchers {
+		searchers[t] = ix.NewSearcher()
+	}
+	done := 0
+	for start := 0; start < len(refs) && active > 0; start += batch {
+		part := refs[start:min(start+batch, len(refs))]
+		tsa := ts[:active]
+		body := func(t int) {
+			s, h := searchers[t], hists[t]
+			for c := t; c < len(part); c += threads {
+				i := part[c]
+				if i < 0 || i >= ix.n {
+					continue
+				}
+				a := ix.Coords(i)
+				s.binCounts(a, tsa, Query{Self: -1}, h)
+				for j := max(i-w, 0); j <= min(i+w, ix.n-1); j++ {
+					k := 0
+					for key := ix.key(a, ix.Coords(j)); k < len(tsa) && tsa[k] < key; k++ {
+					}
+					if k < len(tsa) {
+						h[k]--
+					}
+				}
+			}
+		}
+		if threads == 1 || len(part) == 1 {
+			body(0)
+		} else {
+			var wg sync.WaitGroup
+			for t := range min(threads, len(part)) {
+				wg.Go(func() { body(t) })
+			}
+			wg.Wait()
+		}
+		var cum int64
+		for k := range active {
+			for _, h := range hists {
+				cum += h[k]
+				h[k] = 0
+			}
+			counts[k] += cum
+			used[k] += len(part)
+		}
+		done += len(part)
+		if progress != nil {
+			progress(done, len(refs))
+		}
+		for active > 0 && stop(active-1, used[active-1], counts[active-1]) {
+			active--
+		}
+	}
+	return counts, used
 }

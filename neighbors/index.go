@@ -35,8 +35,10 @@ type Neighbor struct {
 	Dist  float64
 }
 
-// leafSize is the largest number of points in a leaf bucket.
-const leafSize = 16
+// leafSize is the largest number of points in a leaf bucket (32 measured faster than 16 and 8
+// for the all-points nearest-neighbour search and the sampled pair counts on 3·10^5 Lorenz
+// vectors).
+const leafSize = 32
 
 // node is one kd-tree node. Points of the subtree occupy tree positions [start, end).
 type node struct {
@@ -104,7 +106,9 @@ func FromEmbedding(x []float64, lag, dim int, norm Norm) (*Index, error) {
 }
 
 // build constructs the tree over n points whose coordinate d of point i is
-// src[i*rowStride + d*colStride].
+// src[i*rowStride + d*colStride]. The points are first copied contiguously in their own order;
+// the construction then reorders these rows in place (with the permutation), so every scan and
+// selection reads memory sequentially and the rows end up in tree order without another copy.
 func build(src []float64, n, dim, rowStride, colStride int, norm Norm) (*Index, error) {
 	if norm != Euclidean && norm != Max {
 		return nil, fmt.Errorf("%w: unknown norm %d", ErrInput, int(norm))
@@ -114,24 +118,24 @@ func build(src []float64, n, dim, rowStride, colStride int, norm Norm) (*Index, 
 	}
 	ix := &Index{n: n, dim: dim, norm: norm}
 	ix.perm = make([]int32, n)
+	ix.pts = make([]float64, n*dim)
 	for i := range ix.perm {
 		ix.perm[i] = int32(i)
+		row := ix.pts[i*dim : i*dim+dim]
+		base := i * rowStride
+		for d := range row {
+			row[d] = src[base+d*colStride]
+		}
 	}
 	if n > 0 {
 		nn := nodeCount(n)
 		ix.nodes = make([]node, nn)
 		ix.box = make([]float64, nn*2*dim)
-		b := builder{ix: ix, src: src, rs: rowStride, cs: colStride}
+		b := builder{ix: ix}
 		b.node(0, 0, n, 0)
 	}
-	ix.pts = make([]float64, n*dim)
 	ix.inv = make([]int32, n)
 	for p, i := range ix.perm {
-		row := ix.pts[p*dim : p*dim+dim]
-		base := int(i) * rowStride
-		for d := range row {
-			row[d] = src[base+d*colStride]
-		}
 		ix.inv[i] = int32(p)
 	}
 	return ix, nil
@@ -149,12 +153,8 @@ func nodeCount(size int) int {
 }
 
 type builder struct {
-	ix     *Index
-	src    []float64
-	rs, cs int
+	ix *Index
 }
-
-func (b *builder) at(i int32, d int) float64 { return b.src[int(i)*b.rs+d*b.cs] }
 
 // parallelBuildSize is the smallest subtree whose two halves are built on separate goroutines.
 const parallelBuildSize = 1 << 15
@@ -170,12 +170,10 @@ func (b *builder) node(id, start, end, depth int) {
 	for d := range dim {
 		lo[d], hi[d] = math.Inf(1), math.Inf(-1)
 	}
-	mn, mx := int32(math.MaxInt32), int32(-1)
-	for _, i := range ix.perm[start:end] {
-		mn, mx = min(mn, i), max(mx, i)
-		base := int(i) * b.rs
-		for d := range dim {
-			v := b.src[base+d*b.cs]
+	rows := ix.pts[start*dim : end*dim]
+	for c := 0; c < len(rows); c += dim {
+		row := rows[c : c+dim]
+		for d, v := range row {
 			if v < lo[d] {
 				lo[d] = v
 			}
@@ -184,8 +182,12 @@ func (b *builder) node(id, start, end, depth int) {
 			}
 		}
 	}
-	nd.minIdx, nd.maxIdx = mn, mx
 	if end-start <= leafSize {
+		mn, mx := int32(math.MaxInt32), int32(-1)
+		for _, i := range ix.perm[start:end] {
+			mn, mx = min(mn, i), max(mx, i)
+		}
+		nd.minIdx, nd.maxIdx = mn, mx
 		return
 	}
 	split, width := 0, -1.0
@@ -195,7 +197,7 @@ func (b *builder) node(id, start, end, depth int) {
 		}
 	}
 	mid := start + (end-start)/2
-	b.selectNth(ix.perm[start:end], split, mid-start)
+	b.selectNth(start, end, split, mid-start)
 	l := id + 1
 	r := l + nodeCount(mid-start)
 	if end-start >= parallelBuildSize && depth < 4 {
@@ -208,29 +210,44 @@ func (b *builder) node(id, start, end, depth int) {
 		b.node(r, mid, end, depth+1)
 	}
 	nd.left, nd.right, nd.split = int32(l), int32(r), int32(split)
+	nd.minIdx = min(ix.nodes[l].minIdx, ix.nodes[r].minIdx) // the children's index ranges
+	nd.maxIdx = max(ix.nodes[l].maxIdx, ix.nodes[r].maxIdx)
 	nd.lmax = ix.box[l*2*dim+dim+split]
 	nd.rmin = ix.box[r*2*dim+split]
 }
 
-// selectNth reorders perm so that perm[k] holds the point of rank k in coordinate d, with no
-// larger coordinate before it and no smaller one after it (Hoare's selection; duplicates split
+// selectNth reorders the rows at tree positions [start, end) (and the permutation with them)
+// so that position start+k holds the point of rank k in coordinate d, with no larger
+// coordinate before it and no smaller one after it (Hoare's selection; duplicates split
 // evenly).
-func (b *builder) selectNth(perm []int32, d, k int) {
+func (b *builder) selectNth(start, end, d, k int) {
+	ix := b.ix
+	dim := ix.dim
+	perm := ix.perm[start:end]
+	pts := ix.pts[start*dim : end*dim]
+	at := func(p int) float64 { return pts[p*dim+d] }
+	swap := func(p, q int) {
+		perm[p], perm[q] = perm[q], perm[p]
+		rp, rq := pts[p*dim:p*dim+dim], pts[q*dim:q*dim+dim]
+		for c := range rp {
+			rp[c], rq[c] = rq[c], rp[c]
+		}
+	}
 	lo, hi := 0, len(perm)-1
 	for hi > lo {
 		m := lo + (hi-lo)/2
-		x, y, z := b.at(perm[lo], d), b.at(perm[m], d), b.at(perm[hi], d)
+		x, y, z := at(lo), at(m), at(hi)
 		pivot := max(min(x, y), min(max(x, y), z))
 		i, j := lo, hi
 		for i <= j {
-			for b.at(perm[i], d) < pivot {
+			for at(i) < pivot {
 				i++
 			}
-			for b.at(perm[j], d) > pivot {
+			for at(j) > pivot {
 				j--
 			}
 			if i <= j {
-				perm[i], perm[j] = perm[j], perm[i]
+				swap(i, j)
 				i++
 				j--
 			}
