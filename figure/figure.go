@@ -8,7 +8,9 @@ import (
 	"fmt"
 	"image/color"
 	"math"
+	"slices"
 	"strconv"
+	"strings"
 
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/plotter"
@@ -22,66 +24,126 @@ import (
 
 // Fractal draws the local slopes of the correlation sums of run.
 func Fractal(run *analysis.FractalRun, name string) (*plot.Plot, error) {
+	if run == nil || run.R == nil {
+		return nil, fmt.Errorf("figure: fractal: no correlation sums to draw")
+	}
 	return Slopes(run.R, fmt.Sprintf("%s: local slopes (τ = %d, Theiler %d, %s norm)", name, run.Lag, run.Theiler, run.R.Norm))
 }
 
-// Slopes draws the local slopes against r (log axis) for every dimension, with the fitted
-// scaling range of each curve drawn thicker.
+// Slopes draws the local slopes d log C / d log r (Grassberger & Procaccia 1983, "Measuring
+// the strangeness of strange attractors") against r on a log axis, one curve per embedding
+// dimension, with the fitted scaling range of each curve drawn thicker and D2 dashed. The
+// curves are named at their right ends ("m = 3", nudged apart where they meet) rather than in
+// a legend of one entry per dimension.
 func Slopes(r *dimension.Result, title string) (*plot.Plot, error) {
-	p := plot.New()
-	p.Title.Text = title
-	p.X.Label.Text = "r (signal units, log scale)"
-	p.Y.Label.Text = "d log C / d log r"
-	p.X.Scale = plot.LogScale{}
-	p.X.Tick.Marker = plot.LogTicks{Prec: -1}
+	if r == nil {
+		return nil, fmt.Errorf("figure: slopes: no correlation sums to draw")
+	}
+	p := New(title, "radius r [signal units]", "local slope d log C / d log r")
+	LogAxis(&p.X)
+	var endX, endY []float64
+	var endText []string
+	var endCol []int
+	drawn := 0
 	for i, c := range r.Curves {
-		var pts, fitPts plotter.XYs
+		var xs, ys, fx, fy []float64
 		for k, s := range c.Slopes {
-			if math.IsNaN(s) || math.IsInf(s, 0) {
+			if k >= len(r.Radii) || !isFinite(s) || !(r.Radii[k] > 0) || !isFinite(r.Radii[k]) {
 				continue
 			}
-			pts = append(pts, plotter.XY{X: r.Radii[k], Y: s})
+			xs, ys = append(xs, r.Radii[k]), append(ys, s)
 			if c.Fitted && k >= c.From && k <= c.To {
-				fitPts = append(fitPts, plotter.XY{X: r.Radii[k], Y: s})
+				fx, fy = append(fx, r.Radii[k]), append(fy, s)
 			}
 		}
-		if len(pts) < 2 {
+		if len(xs) < 2 {
 			continue
 		}
-		col := Palette(i)
-		l, err := plotter.NewLine(pts)
-		if err != nil {
+		col := curveColor(i)
+		if err := AddLine(p, xs, ys, col, vg.Points(1.2), ""); err != nil {
 			return nil, err
 		}
-		l.Color = col
-		p.Add(l)
-		p.Legend.Add(fmt.Sprintf("m = %d", c.Dim), l)
-		if len(fitPts) >= 2 {
-			f, err := plotter.NewLine(fitPts)
-			if err != nil {
+		if len(fx) >= 2 {
+			legend := ""
+			if drawn == 0 {
+				legend = "scaling range (thick)"
+			}
+			if err := AddLine(p, fx, fy, col, vg.Points(3.2), legend); err != nil {
 				return nil, err
 			}
-			f.Color, f.Width = col, vg.Points(3)
-			p.Add(f)
+			drawn++
+		}
+		endX, endY = append(endX, xs[len(xs)-1]), append(endY, ys[len(ys)-1])
+		endText, endCol = append(endText, " m = "+strconv.Itoa(c.Dim)), append(endCol, i)
+	}
+	if len(endX) == 0 {
+		return nil, fmt.Errorf("figure: slopes: no curve has two finite local slopes")
+	}
+	if r.D2 > 0 && isFinite(r.D2) {
+		HLine(p, r.D2, Guide(), "D2 = "+strconv.FormatFloat(r.D2, 'g', 4, 64))
+	}
+	lo := math.Min(0, minOf(endY))
+	hi := lo
+	for _, c := range r.Curves {
+		for _, s := range c.Slopes {
+			if isFinite(s) {
+				hi = math.Max(hi, s)
+			}
 		}
 	}
-	if r.D2 > 0 {
-		h := plotter.NewFunction(func(float64) float64 { return r.D2 })
-		h.Dashes = []vg.Length{vg.Points(4), vg.Points(3)}
-		h.Color = color.Gray{Y: 80}
-		p.Add(h)
-		p.Legend.Add(fmt.Sprintf("D2 = %.3g", r.D2), h)
+	hi = math.Max(hi, r.D2)
+	if !(hi > lo) {
+		hi = lo + 1
 	}
-	p.Legend.Top, p.Legend.Left = true, true
-	p.Y.Min = 0
+	// Name the curves at their right ends, nudged apart by at least one text line.
+	ys := spread(endY, 0.065*(hi-lo))
+	for k := range endX {
+		if err := Labels(p, endX[k:k+1], ys[k:k+1], endText[k:k+1], curveColor(endCol[k])); err != nil {
+			return nil, err
+		}
+	}
+	p.Y.Min, p.Y.Max = lo, math.Max(hi, maxOf(ys))+0.04*(hi-lo)
+	padAxis(&p.X, 0.02)
 	return p, nil
 }
 
-// Palette returns a distinguishable colour for curve i: the project's palette (Color).
+// curveColor is the colour of the i-th of many curves: the palette without its last colour
+// (yellow is faint on white).
+func curveColor(i int) color.Color { return Color(i % (len(okabeIto) - 1)) }
+
+// spread returns the values y moved apart so that any two differ by at least gap, each moved
+// as little as it can while keeping their order (labels at the ends of curves that meet).
+func spread(y []float64, gap float64) []float64 {
+	idx := make([]int, len(y))
+	for i := range idx {
+		idx[i] = i
+	}
+	slices.SortStableFunc(idx, func(a, b int) int {
+		switch {
+		case y[a] < y[b]:
+			return -1
+		case y[a] > y[b]:
+			return 1
+		}
+		return 0
+	})
+	out := slices.Clone(y)
+	for k := 1; k < len(idx); k++ {
+		if prev := out[idx[k-1]]; out[idx[k]] < prev+gap {
+			out[idx[k]] = prev + gap
+		}
+	}
+	return out
+}
+
+// Palette returns the colour of curve i: the project's palette (Color).
 func Palette(i int) color.Color { return Color(i) }
 
 // Lyapunov draws the divergence curves with the fit range shaded and the fitted line.
 func Lyapunov(run *analysis.LyapunovRun, name string) (*plot.Plot, error) {
+	if run == nil || run.R == nil {
+		return nil, fmt.Errorf("lyapunov: figure: no divergence curve to draw")
+	}
 	r := run.R
 	p, err := DivergencePlot(r, fmt.Sprintf("%s: divergence (%s, m = %d, τ = %d, Theiler %d)", name, run.Method, r.Dim, r.Lag, r.Theiler), "")
 	if err != nil {
@@ -90,166 +152,206 @@ func Lyapunov(run *analysis.LyapunovRun, name string) (*plot.Plot, error) {
 	return p, nil
 }
 
-// Evidence draws the spectrum with its significant lines and the two surrogate tests
-// (surrogate values as points, the data as a vertical line).
+// Evidence draws the spectrum with its significant lines (Welch 1967) and the two surrogate
+// tests (Theiler et al. 1992, "Testing for nonlinearity in time series: the method of
+// surrogate data"): the surrogates' values as points, the data's as a vertical line.
 func Evidence(an *regime.Analysis, name string) ([][]*plot.Plot, error) {
+	if an == nil || an.Evidence == nil {
+		return nil, fmt.Errorf("figure: evidence: nothing to draw")
+	}
 	ev := an.Evidence
 	var row []*plot.Plot
-	if l := ev.Lines; l != nil {
-		p := plot.New()
-		p.Title.Text = fmt.Sprintf("%s: spectrum (%s) → %s", name, l.Kind, an.Verdict.Regime)
-		p.X.Label.Text = "frequency (cycles per time unit)"
-		p.Y.Label.Text = "power density (log)"
-		p.Y.Scale = plot.LogScale{}
-		p.Y.Tick.Marker = plot.LogTicks{Prec: 1}
-		var pts plotter.XYs
-		floor := 0.0
+	if l := ev.Lines; l != nil && l.Spectrum != nil {
+		verdict := ""
+		if an.Verdict != nil {
+			verdict = " → " + an.Verdict.Regime
+		}
+		p := New(fmt.Sprintf("%s: spectrum (%s)%s", name, l.Kind, verdict), "frequency [cycles per time unit]", "power density")
+		LogAxis(&p.Y)
+		var fs, ps []float64
 		for k, pw := range l.Spectrum.Power {
-			if k > 0 && pw > 0 {
-				pts = append(pts, plotter.XY{X: l.Spectrum.Freq[k], Y: pw})
-				if floor == 0 || pw < floor {
-					floor = pw
+			if k > 0 && k < len(l.Spectrum.Freq) && pw > 0 {
+				fs, ps = append(fs, l.Spectrum.Freq[k]), append(ps, pw)
+			}
+		}
+		if len(fs) > 1 {
+			if err := AddLine(p, fs, ps, Main(), vg.Points(1.2), "spectrum"); err != nil {
+				return nil, err
+			}
+			var qf, qp []float64
+			for _, q := range l.Peaks {
+				if q.Power > 0 {
+					qf, qp = append(qf, q.Freq), append(qp, q.Power)
 				}
 			}
-		}
-		if len(pts) > 1 {
-			ln, err := plotter.NewLine(pts)
-			if err != nil {
+			if err := AddPoints(p, qf, qp, Second(), vg.Points(3), "significant lines"); err != nil {
 				return nil, err
 			}
-			ln.Color = Palette(0)
-			p.Add(ln)
+			Pad(p, 0.03)
+			row = append(row, p)
 		}
-		var pk plotter.XYs
-		for _, q := range l.Peaks {
-			pk = append(pk, plotter.XY{X: q.Freq, Y: q.Power})
-		}
-		if len(pk) > 0 {
-			sc, err := plotter.NewScatter(pk)
-			if err != nil {
-				return nil, err
-			}
-			sc.Color = Palette(1)
-			p.Add(sc)
-			p.Legend.Add("significant lines", sc)
-		}
-		p.Legend.Top = true // the spectrum falls to the right: keep the legend off the noise floor
+	}
+	if p, err := rankPanel([]*regime.RankTest{ev.Prediction, ev.Reversal}); err != nil {
+		return nil, err
+	} else if p != nil {
 		row = append(row, p)
 	}
-	for _, t := range []*regime.RankTest{ev.Prediction, ev.Reversal} {
-		if t == nil {
-			continue
-		}
-		p := plot.New()
-		p.Title.Text = fmt.Sprintf("%s: p = %.3g", t.Name, t.P)
-		p.X.Label.Text = t.Name
-		p.Y.Label.Text = "surrogate number"
-		var pts plotter.XYs
-		for i, s := range t.Surrogates {
-			pts = append(pts, plotter.XY{X: s, Y: float64(i + 1)})
-		}
-		sc, err := plotter.NewScatter(pts)
-		if err != nil {
-			return nil, err
-		}
-		sc.Color = color.Gray{Y: 90}
-		p.Add(sc)
-		p.Legend.Add("IAAFT surrogates", sc)
-		d, err := plotter.NewLine(plotter.XYs{{X: t.Data, Y: 0}, {X: t.Data, Y: float64(len(t.Surrogates) + 1)}})
-		if err != nil {
-			return nil, err
-		}
-		d.Color, d.Width = Palette(1), vg.Points(2)
-		p.Add(d)
-		p.Legend.Add("data", d)
-		p.Legend.Top = true
-		// head room above the surrogates so the legend covers no point
-		p.Y.Min, p.Y.Max = 0, float64(len(t.Surrogates))*1.3+2
-		row = append(row, p)
+	if len(row) == 0 {
+		return nil, fmt.Errorf("figure: evidence: no spectrum and no surrogate test to draw")
 	}
 	return [][]*plot.Plot{row}, nil
 }
 
-// Entropy draws H(L) and h(L) side by side.
-func Entropy(p analysis.EntropyParams, res analysis.EntropyResult) ([][]*plot.Plot, error) {
-	k := float64(len([]rune(p.Alphabet)))
-	blue := color.RGBA{R: 0x1f, G: 0x5f, B: 0xa8, A: 0xff}
-	grey := color.RGBA{R: 0x80, G: 0x80, B: 0x80, A: 0xff}
-	red := color.RGBA{R: 0xc0, G: 0x20, B: 0x20, A: 0xff}
-	panel := func(title, ylabel string, ys []float64, supported []bool, ref func(l float64) float64) (*plot.Plot, error) {
-		pl := plot.New()
-		pl.Title.Text = title
-		pl.X.Label.Text = "word length L (symbols)"
-		pl.Y.Label.Text = ylabel
-		var all, sup, uns plotter.XYs
-		for i, y := range ys {
-			pt := plotter.XY{X: float64(i + 1), Y: y}
-			all = append(all, pt)
-			if supported[i] {
-				sup = append(sup, pt)
-			} else {
-				uns = append(uns, pt)
+// rankPanel draws the surrogate tests in one panel, one row per test: each surrogate's
+// statistic as a point and the data's as a bar, in standard deviations of the surrogates from
+// their mean, so that tests on different scales share the axis; the p-values are in the title.
+func rankPanel(tests []*regime.RankTest) (*plot.Plot, error) {
+	var use []*regime.RankTest
+	for _, t := range tests {
+		if t != nil && len(t.Surrogates) > 0 {
+			use = append(use, t)
+		}
+	}
+	if len(use) == 0 {
+		return nil, nil
+	}
+	title := "surrogate tests:"
+	var ticks []plot.Tick
+	p := New("", "statistic − surrogate mean [surrogate SD]", "")
+	for i, t := range use {
+		mean, sd, n := 0.0, 0.0, 0
+		for _, s := range t.Surrogates {
+			if isFinite(s) {
+				mean += s
+				n++
 			}
 		}
-		line, err := plotter.NewLine(all)
-		if err != nil {
+		if n > 0 {
+			mean /= float64(n)
+		}
+		for _, s := range t.Surrogates {
+			if isFinite(s) {
+				sd += (s - mean) * (s - mean)
+			}
+		}
+		if n > 1 {
+			sd = math.Sqrt(sd / float64(n-1))
+		}
+		if !(sd > 0) {
+			sd = 1
+		}
+		y := float64(len(use) - i)
+		xs, ys := make([]float64, len(t.Surrogates)), make([]float64, len(t.Surrogates))
+		for k, s := range t.Surrogates {
+			xs[k], ys[k] = (s-mean)/sd, y+0.25*(float64(k%5)-2)/2
+		}
+		legend, dl := "", ""
+		if i == 0 {
+			legend, dl = fmt.Sprintf("%d IAAFT surrogates", len(xs)), "data"
+		}
+		if err := AddPoints(p, xs, ys, Main(), vg.Points(2.5), legend); err != nil {
 			return nil, err
 		}
-		line.Color = blue
-		n := float64(len(ys))
-		refLine := plotter.NewFunction(ref)
-		refLine.XMin, refLine.XMax = 1, n
-		refLine.Color, refLine.Dashes = grey, []vg.Length{vg.Points(1), vg.Points(3)}
-		pl.Add(refLine, line)
-		if len(sup) > 0 {
-			sc, err := plotter.NewScatter(sup)
-			if err != nil {
-				return nil, err
-			}
-			sc.GlyphStyle = draw.GlyphStyle{Shape: draw.CircleGlyph{}, Radius: vg.Points(3), Color: blue}
-			pl.Add(sc)
+		d := (t.Data - mean) / sd
+		if err := AddLine(p, []float64{d, d}, []float64{y - 0.35, y + 0.35}, Second(), vg.Points(3), dl); err != nil {
+			return nil, err
 		}
-		if len(uns) > 0 {
-			sc, err := plotter.NewScatter(uns)
-			if err != nil {
-				return nil, err
-			}
-			sc.GlyphStyle = draw.GlyphStyle{Shape: draw.RingGlyph{}, Radius: vg.Points(3), Color: blue}
-			pl.Add(sc)
+		name := shortTest(t.Name)
+		ticks = append(ticks, plot.Tick{Value: y, Label: name})
+		title += fmt.Sprintf(" %s p = %.2g", name, t.P)
+		if i+1 < len(use) {
+			title += ","
 		}
-		if p.RateLength >= 1 {
-			lo, hi := 0.0, 0.0
-			for _, y := range ys {
-				hi = math.Max(hi, y)
-			}
-			hi = math.Max(hi, ref(n))
-			mark, err := plotter.NewLine(plotter.XYs{{X: float64(p.RateLength), Y: lo}, {X: float64(p.RateLength), Y: hi}})
-			if err != nil {
-				return nil, err
-			}
-			mark.Color, mark.Dashes = red, []vg.Length{vg.Points(4), vg.Points(2)}
-			pl.Add(mark)
-			pl.Legend.Add("L* = "+strconv.Itoa(p.RateLength), mark)
-		}
-		pl.Y.Min = 0
-		pl.Legend.Top, pl.Legend.Left = false, false
-		return pl, nil
 	}
+	p.Title.Text = title
+	Pad(p, 0.06)
+	p.Y.Min, p.Y.Max = 0.4, float64(len(use))+0.6
+	p.Y.Tick.Marker = plot.ConstantTicks(ticks)
+	return p, nil
+}
+
+// shortTest is the short name of a surrogate test for an axis ("prediction", "reversal").
+func shortTest(name string) string {
+	switch {
+	case strings.Contains(name, "prediction"):
+		return "prediction"
+	case strings.Contains(name, "reversal"):
+		return "reversal"
+	}
+	return name
+}
+
+// Entropy draws the block entropies H(L) and the entropy-rate estimates h(L) side by side
+// (Grassberger 1988, "Finite sample corrections to entropy and dimension estimates"), with
+// the values of random symbols (L·log2 K and log2 K) dotted and the length L* the rate is
+// read at marked; lengths the data do not support are hollow.
+func Entropy(p analysis.EntropyParams, res analysis.EntropyResult) ([][]*plot.Plot, error) {
 	n := len(res.BlockEntropies)
 	if n == 0 || len(res.EntropyRates) != n {
-		return nil, fmt.Errorf("no block entropies to draw")
+		return nil, fmt.Errorf("figure: entropy: no block entropies to draw")
+	}
+	k := float64(len([]rune(p.Alphabet)))
+	lk := 0.0
+	if k > 1 {
+		lk = math.Log2(k)
+	}
+	panel := func(title, ylabel string, ys []float64, supported []bool, ref func(l float64) float64, refName string) (*plot.Plot, error) {
+		pl := New(title, "word length L [symbols]", ylabel)
+		ls := make([]float64, len(ys))
+		var sx, sy, ux, uy []float64
+		for i, y := range ys {
+			ls[i] = float64(i + 1)
+			if supported[i] {
+				sx, sy = append(sx, ls[i]), append(sy, y)
+			} else {
+				ux, uy = append(ux, ls[i]), append(uy, y)
+			}
+		}
+		if lk > 0 {
+			rx, ry := []float64{1, float64(len(ys))}, []float64{ref(1), ref(float64(len(ys)))}
+			rl, err := plotter.NewLine(finite(rx, ry))
+			if err == nil {
+				rl.Color, rl.Width, rl.Dashes = Guide(), vg.Points(1.2), []vg.Length{vg.Points(1.5), vg.Points(3)}
+				pl.Add(rl)
+				pl.Legend.Add(refName, rl)
+			}
+		}
+		if err := AddLine(pl, ls, ys, Main(), vg.Points(1.5), ""); err != nil {
+			return nil, err
+		}
+		if err := AddPoints(pl, sx, sy, Main(), vg.Points(3), "supported"); err != nil {
+			return nil, err
+		}
+		if len(ux) > 0 {
+			sc, err := plotter.NewScatter(finite(ux, uy))
+			if err == nil {
+				sc.GlyphStyle = draw.GlyphStyle{Shape: draw.RingGlyph{}, Radius: vg.Points(3), Color: Main()}
+				pl.Add(sc)
+				pl.Legend.Add("not supported", sc)
+			}
+		}
+		if p.RateLength >= 1 {
+			VLine(pl, float64(p.RateLength), Mark(), "L* = "+strconv.Itoa(p.RateLength), true)
+		}
+		pl.X.Tick.Marker = IntegerTicks{}
+		pl.X.Min, pl.X.Max = 0.5, float64(len(ys))+0.5
+		hi := math.Max(maxOf(ys), ref(float64(len(ys))))
+		if !isFinite(hi) || hi <= 0 {
+			hi = 1
+		}
+		pl.Y.Min, pl.Y.Max = 0, hi*1.05
+		return pl, nil
 	}
 	hb, hr, sup := make([]float64, n), make([]float64, n), make([]bool, n)
 	for i, b := range res.BlockEntropies {
 		hb[i], hr[i], sup[i] = b.Bits, res.EntropyRates[i].Bits, b.Supported
 	}
-	lk := math.Log2(k)
-	left, err := panel("Block entropy", "H(L) (bits)", hb, sup, func(l float64) float64 { return l * lk })
+	left, err := panel("Block entropy", "H(L) [bits]", hb, sup, func(l float64) float64 { return l * lk }, "random symbols: L·log2 K")
 	if err != nil {
 		return nil, err
 	}
-	right, err := panel(fmt.Sprintf("Entropy rate (h = %.3f bits/symbol)", res.EntropyRate), "h(L) (bits/symbol)", hr, sup,
-		func(float64) float64 { return lk })
+	right, err := panel(fmt.Sprintf("Entropy rate (h = %.3f bits/symbol)", res.EntropyRate), "h(L) [bits/symbol]", hr, sup,
+		func(float64) float64 { return lk }, "random symbols: log2 K")
 	if err != nil {
 		return nil, err
 	}
@@ -263,6 +365,9 @@ const SymbolsMapPoints = 5000
 // Symbols is the return map of run's values (at most SymbolsMapPoints pairs) with every
 // cut of the partition drawn as a vertical and a horizontal line; it returns the pairs drawn.
 func Symbols(run *analysis.SymbolsRun, title string) (*plot.Plot, int, error) {
+	if run == nil {
+		return nil, 0, fmt.Errorf("figure: symbols: nothing to draw")
+	}
 	v := run.Values
 	if len(v) < 2 {
 		return nil, 0, fmt.Errorf("%d values are too few for a return map", len(v))
@@ -272,79 +377,77 @@ func Symbols(run *analysis.SymbolsRun, title string) (*plot.Plot, int, error) {
 	if err != nil {
 		return nil, 0, err
 	}
-	lo, hi := v[0], v[0]
-	for _, x := range v {
-		lo, hi = min(lo, x), max(hi, x)
-	}
-	red := color.RGBA{R: 0xc0, G: 0x20, B: 0x20, A: 0xff}
-	for i, c := range run.Part.Thresholds {
-		for _, seg := range []plotter.XYs{{{X: c, Y: lo}, {X: c, Y: hi}}, {{X: lo, Y: c}, {X: hi, Y: c}}} {
-			l, err := plotter.NewLine(seg)
-			if err != nil {
-				return nil, 0, err
+	if run.Part != nil {
+		for i, c := range run.Part.Thresholds {
+			legend := ""
+			if i == 0 {
+				legend = "partition cut"
 			}
-			l.Color, l.Width = red, vg.Points(1.2)
-			p.Add(l)
-			if i == 0 && seg[0].X == c {
-				p.Legend.Add("cut", l)
-			}
+			VLine(p, c, Mark(), legend, false)
+			p.Add(&marker{y: c, c: Mark()})
 		}
 	}
-	p.Legend.Top = true
 	return p, len(v) - 1, nil
 }
 
-// ReturnMap draws v[n+1] against v[n] with the diagonal.
+// ReturnMap draws v[n+1] against v[n] with the diagonal, on equal axes (SquareAxes) that hold
+// every point.
 func ReturnMap(v []float64, name, title string) (*plot.Plot, error) {
-	p := plot.New()
-	p.Title.Text = "Return map — " + title
-	p.X.Label.Text = name + " (n)"
-	p.Y.Label.Text = name + " (n+1)"
-	pts := make(plotter.XYs, 0, max(len(v)-1, 0))
-	lo, hi := v[0], v[0]
-	for i := 0; i+1 < len(v); i++ {
-		pts = append(pts, plotter.XY{X: v[i], Y: v[i+1]})
-		lo, hi = min(lo, v[i]), max(hi, v[i])
+	if len(v) < 2 {
+		return nil, fmt.Errorf("return map: %d values are too few (want at least 2)", len(v))
 	}
-	sc, err := plotter.NewScatter(pts)
-	if err != nil {
+	if name == "" {
+		name = "x"
+	}
+	p := New("Return map — "+title, name+"(n)", name+"(n+1)")
+	xs, ys := v[:len(v)-1], v[1:]
+	pts := finite(xs, ys)
+	if len(pts) == 0 {
+		return nil, fmt.Errorf("return map: no pair of finite values")
+	}
+	lo, hi := math.Inf(1), math.Inf(-1)
+	for _, q := range pts {
+		lo, hi = math.Min(lo, math.Min(q.X, q.Y)), math.Max(hi, math.Max(q.X, q.Y))
+	}
+	if err := addDiagonal(p, lo, hi); err != nil {
+		return nil, err
+	}
+	if err := AddPoints(p, xs, ys, Main(), vg.Points(1.4), ""); err != nil {
 		return nil, fmt.Errorf("return map: %w", err)
 	}
-	sc.GlyphStyle.Shape = draw.CircleGlyph{}
-	sc.GlyphStyle.Radius = vg.Points(1.2)
-	sc.GlyphStyle.Color = color.RGBA{R: 0x1f, G: 0x5f, B: 0xa8, A: 0xff}
-	diag, err := plotter.NewLine(plotter.XYs{{X: lo, Y: lo}, {X: hi, Y: hi}})
-	if err != nil {
-		return nil, fmt.Errorf("return map: %w", err)
-	}
-	diag.Color = color.RGBA{R: 0x80, G: 0x80, B: 0x80, A: 0xff}
-	diag.Dashes = []vg.Length{vg.Points(3), vg.Points(3)}
-	p.Add(diag, sc)
+	SquareAxes(p, 0.04)
 	return p, nil
 }
 
-// DelayPanel draws x(t+lag) against x(t) for at most DelayPanelPoints vectors.
+// addDiagonal draws the dashed diagonal y = x from lo to hi.
+func addDiagonal(p *plot.Plot, lo, hi float64) error {
+	d, err := plotter.NewLine(plotter.XYs{{X: lo, Y: lo}, {X: hi, Y: hi}})
+	if err != nil {
+		return fmt.Errorf("figure: %w", err)
+	}
+	d.Color, d.Width, d.Dashes = Guide(), vg.Points(1), Dashes()
+	p.Add(d)
+	p.Legend.Add("diagonal", d)
+	return nil
+}
+
+// DelayPanel draws x(t+lag) against x(t) for at most DelayPanelPoints vectors, on equal axes.
 func DelayPanel(x []float64, lag int, title string) (*plot.Plot, error) {
+	if lag < 1 {
+		return nil, fmt.Errorf("denoise: figure: lag %d: want at least 1", lag)
+	}
 	n := min(len(x)-lag, DelayPanelPoints)
 	if n < 1 {
 		return nil, fmt.Errorf("denoise: figure: too few samples for lag %d", lag)
 	}
-	pts := make(plotter.XYs, n)
-	for i := range pts {
-		pts[i].X, pts[i].Y = x[i], x[i+lag]
+	p := New(title, "x(t)", fmt.Sprintf("x(t + %d·dt)", lag))
+	if len(finite(x[:n], x[lag:lag+n])) == 0 {
+		return nil, fmt.Errorf("denoise: figure: no pair of finite values")
 	}
-	p := plot.New()
-	p.Title.Text = title
-	p.X.Label.Text = "x(t)"
-	p.Y.Label.Text = fmt.Sprintf("x(t + %d·dt)", lag)
-	sc, err := plotter.NewScatter(pts)
-	if err != nil {
+	if err := AddPoints(p, x[:n], x[lag:lag+n], Main(), vg.Points(0.8), ""); err != nil {
 		return nil, fmt.Errorf("denoise: figure: %w", err)
 	}
-	sc.GlyphStyle.Shape = draw.CircleGlyph{}
-	sc.GlyphStyle.Radius = vg.Points(0.6)
-	sc.GlyphStyle.Color = color.RGBA{R: 0x1f, G: 0x4e, B: 0x9a, A: 0xff}
-	p.Add(sc)
+	SquareAxes(p, 0.04)
 	return p, nil
 }
 

@@ -89,7 +89,7 @@ func StateDiagram(w io.Writer, r *states.Result, alphabet string) error {
 	}
 	for i, s := range r.States {
 		fmt.Fprintf(bw, `<circle cx="%.1f" cy="%.1f" r="%.1f" fill="%s" fill-opacity="0.85" stroke="%s" stroke-width="2"/>
-<text x="%.1f" y="%.1f" text-anchor="middle" font-size="10pt"><tspan font-weight="bold">%d</tspan><tspan x="%.1f" dy="1.2em">%.3f</tspan></text>
+<text x="%.1f" y="%.1f" text-anchor="middle" font-size="11pt"><tspan font-weight="bold">%d</tspan><tspan x="%.1f" dy="1.2em">%.3f</tspan></text>
 `, xs[i], ys[i], rad[i], diagramFill, diagramStroke, xs[i], ys[i]-3, s.ID, xs[i], s.Probability)
 	}
 	fmt.Fprintf(bw, "</svg>\n")

@@ -99,7 +99,7 @@ func Write(w io.Writer, format string, width, height vg.Length, rows [][]*plot.P
 			s := save(p)
 			states = append(states, s)
 			Restyle(p)
-			p.Title.Text = wrap(p.Title.TextStyle, p.Title.Text, tileW)
+			p.Title.Text = wrap(p.Title.TextStyle, p.Title.Text, 0.85*tileW) // Align may shift the tile: keep a margin
 			legends[i][j] = liftLegend(p)
 			thinTicks(p, p.DataCanvas(tile))
 			centreLogLabels(p)

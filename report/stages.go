@@ -115,7 +115,7 @@ func Stages(res *analysis.Result, s *series.Series, fig figure.Record, view View
 			}
 			return &Section{JSON: js, Summary: sum, Cautions: b.Cautions, Figures: []Figure{{Name: "lag",
 				Caption: "Mutual information (bits) and autocorrelation against the delay; the chosen lag is marked.",
-				Width:   9 * vg.Inch, Height: 7.5 * vg.Inch, Rows: rows}}}, nil
+				Width:   figure.Width, Height: figure.HeightFor(len(rows)), Rows: rows}}}, nil
 		}},
 		{Key: "dim", Title: "Dimension: false neighbours and Cao's E1/E2", Run: func() (*Section, error) {
 			if res.Dim == nil {
@@ -142,7 +142,7 @@ func Stages(res *analysis.Result, s *series.Series, fig figure.Record, view View
 				{"lag, Theiler window", fmt.Sprintf("%d samples (%s), %d samples (%s)", p.Lag, p.LagMethod, p.Theiler, p.TheilerFrom)},
 			}, Figures: []Figure{{Name: "dim",
 				Caption: "False-neighbour fraction and Cao's E1, E2 against the dimension; the chosen dimension is marked.",
-				Width:   9 * vg.Inch, Height: 7.5 * vg.Inch, Rows: rows}}}, stageErr(res, "dim")
+				Width:   figure.Width, Height: figure.HeightFor(len(rows)), Rows: rows}}}, stageErr(res, "dim")
 		}},
 		{Key: "embed", Title: "State-space picture", Run: func() (*Section, error) {
 			if res.Embed == nil {
@@ -157,12 +157,7 @@ func Stages(res *analysis.Result, s *series.Series, fig figure.Record, view View
 			if err != nil {
 				return nil, fmt.Errorf("embed: figure: %w", err)
 			}
-			// smaller canvases than the command's: the page scales them to one column, and
-			// gonum's text keeps its size in points
-			w, h := 6*vg.Inch, 5.5*vg.Inch
-			if len(rows[0]) > 1 {
-				w, h = 11*vg.Inch, 5*vg.Inch
-			}
+			w, h := figure.SizeFor(rows)
 			return &Section{JSON: js, Cautions: b.Cautions, Summary: [][2]string{
 				{"delay vectors", fmt.Sprintf("%d of dimension %d at lag %d samples", b.Vectors, b.Dimension, b.Lag)},
 				{"lag / dimension from", p.LagMethod + " / " + p.DimMethod},
@@ -236,7 +231,7 @@ func lyapunovStage(res *analysis.Result, title string) Stage {
 		}
 		return &Section{JSON: js, Summary: sum, Cautions: b.Cautions, Figures: []Figure{{Name: "lyapunov",
 			Caption: "Mean log separation of initially close delay vectors against the steps ahead; the fit range is shaded and λ_max is the slope there.",
-			Width:   8 * vg.Inch, Height: 5.5 * vg.Inch, Rows: [][]*plot.Plot{{pl}}}}}, noFit
+			Width:   figure.Width, Height: figure.Height, Rows: [][]*plot.Plot{{pl}}}}}, noFit
 	}}
 }
 
@@ -255,7 +250,7 @@ func fractalStage(res *analysis.Result, title string) Stage {
 		}
 		fig := []Figure{{Name: "fractal",
 			Caption: "Local slopes d log C / d log r of the correlation sums against the radius, one curve per embedding dimension; the fitted scaling range is drawn thicker and D2 dashed.",
-			Width:   8 * vg.Inch, Height: 5.5 * vg.Inch, Rows: [][]*plot.Plot{{pl}}}}
+			Width:   figure.Width, Height: figure.Height, Rows: [][]*plot.Plot{{pl}}}}
 		if res.Fractal == nil {
 			// no scaling range: no JSON object to show, but the curves say why
 			return &Section{JSON: nil, Figures: fig, Cautions: run.Cautions}, err
@@ -321,13 +316,10 @@ func regimeStage(res *analysis.Result, title string) Stage {
 			{"evidence", "points to (weight): detail"},
 		}
 		sum = append(sum, EvidenceRows(v)...)
-		w := 11 * vg.Inch
-		if len(rows[0]) < 3 {
-			w = vg.Length(len(rows[0])) * 4 * vg.Inch
-		}
+		w, h := figure.SizeFor(rows)
 		return &Section{JSON: js, Summary: sum, Cautions: b.Cautions, Figures: []Figure{{Name: "regime",
-			Caption: "The evidence: the spectrum with its significant lines, and the data's nonlinear prediction error and time-reversal asymmetry (line) against the IAAFT surrogates' (points).",
-			Width:   w, Height: 4 * vg.Inch, Rows: rows}}}, nil
+			Caption: "The evidence: the spectrum with its significant lines, and the data's nonlinear prediction error and time-reversal asymmetry (bars) against the IAAFT surrogates' (points), in standard deviations of the surrogates from their mean.",
+			Width:   w, Height: h, Rows: rows}}}, nil
 	}}
 }
 
@@ -375,12 +367,12 @@ func symbolsStage(res *analysis.Result, title string) Stage {
 		if run.Rule != "" {
 			sum = append(sum, [2]string{"rule", run.Rule})
 		}
-		caption := "Return map x_{n+1} against x_n of the values the partition is applied to; the partition's cut(s) are the red lines, the dashed line is the diagonal."
+		caption := "Return map x_{n+1} against x_n of the values the partition is applied to; the partition's cut(s) are the purple lines, the dashed line is the diagonal."
 		if drawn < len(run.Values)-1 {
 			caption += fmt.Sprintf(" The first %d of %d pairs are drawn.", drawn, len(run.Values)-1)
 		}
 		return &Section{JSON: js, Summary: sum, Cautions: b.Cautions, Figures: []Figure{{Name: "symbols",
-			Caption: caption, Width: 6 * vg.Inch, Height: 6 * vg.Inch, Rows: [][]*plot.Plot{{pl}}}}}, nil
+			Caption: caption, Width: figure.Width, Height: squareHeight(pl), Rows: [][]*plot.Plot{{pl}}}}}, nil
 	}}
 }
 
@@ -420,7 +412,7 @@ func entropyStage(res *analysis.Result) Stage {
 		}, Figures: []Figure{{Name: "entropy",
 			Caption: "Block entropy H(L) and entropy-rate estimates h(L) = H(L) − H(L−1) in bits against the word length L; " +
 				"hollow points are lengths the data do not support, the entropy rate is read at the marked L*, and the dotted line is log2 K (random symbols).",
-			Width: 9 * vg.Inch, Height: 4.5 * vg.Inch, Rows: rows}}}, nil
+			Width: figure.Width, Height: figure.HeightFor(len(rows)), Rows: rows}}}, nil
 	}}
 }
 
@@ -447,4 +439,10 @@ func ThresholdText(th []float64) string {
 		t[i] = strconv.FormatFloat(v, 'g', 6, 64)
 	}
 	return strings.Join(t, ", ")
+}
+
+// squareHeight is the canvas height of a figure of one panel with equal axes.
+func squareHeight(p *plot.Plot) vg.Length {
+	_, h := figure.SizeFor([][]*plot.Plot{{p}})
+	return h
 }

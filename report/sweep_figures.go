@@ -1,76 +1,47 @@
 package report
 
 import (
+	"fmt"
 	"image/color"
 	"math"
 
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/plotter"
-	"gonum.org/v1/plot/text"
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
-)
 
-// The sweep page's colours: the colour-blind-safe palette of M. Okabe & K. Ito (2008),
-// "Color Universal Design (CUD): how to make figures and presentations that are friendly to
-// colorblind people" (J*FLY), in an order of our own.
-var (
-	okBlack     = color.RGBA{0x00, 0x00, 0x00, 0xff}
-	okOrange    = color.RGBA{0xe6, 0x9f, 0x00, 0xff}
-	okGreen     = color.RGBA{0x00, 0x9e, 0x73, 0xff}
-	okBlue      = color.RGBA{0x00, 0x72, 0xb2, 0xff}
-	okVermilion = color.RGBA{0xd5, 0x5e, 0x00, 0xff}
-	okPurple    = color.RGBA{0xcc, 0x79, 0xa7, 0xff}
-	okGrey      = color.RGBA{0x9a, 0x9a, 0x9a, 0xff} // rules and zero lines only
+	"unfold/figure"
 )
 
 // verdictOrder lists the verdicts (and the broadband line kind) in the order they are drawn;
-// verdictColor gives each verdict (and each line kind) its colour on every figure of the page.
+// verdictColor gives each verdict (and each line kind) its colour on every figure of the page,
+// from the project's palette (figure.Color: Okabe & Ito 2008).
 var verdictOrder = []string{"periodic", "quasiperiodic", "chaotic", "stochastic", "undetermined", "broadband"}
 
-func verdictColor(v string) color.RGBA {
+func verdictColor(v string) color.Color {
 	switch v {
 	case "periodic":
-		return okBlue
+		return figure.Main() // blue
 	case "quasiperiodic":
-		return okGreen
+		return figure.Color(2) // bluish green
 	case "chaotic", "broadband":
-		return okVermilion
+		return figure.Second() // vermillion
 	case "stochastic":
-		return okPurple
+		return figure.Mark() // reddish purple
 	case "undetermined":
-		return okOrange
+		return figure.Color(5) // orange
 	}
-	return okBlack
+	return figure.Color(6) // black
 }
 
-func hexColor(c color.RGBA) string {
-	const d = "0123456789abcdef"
-	b := []byte{'#', d[c.R>>4], d[c.R&15], d[c.G>>4], d[c.G&15], d[c.B>>4], d[c.B&15]}
-	return string(b)
+func hexColor(c color.Color) string {
+	r, g, b, _ := c.RGBA()
+	return fmt.Sprintf("#%02x%02x%02x", r>>8, g>>8, b>>8)
 }
 
-// sweepPlot is a plot in the page's style: sans-serif text of 10–12 pt, a light grid.
+// sweepPlot is a plot in the project's style (figure.New).
 func sweepPlot(title, x, y string) *plot.Plot {
-	p := plot.New()
-	p.Title.Text = title
-	p.X.Label.Text = x
-	p.Y.Label.Text = y
-	p.Title.TextStyle.Font.Size = vg.Points(12)
-	p.X.Label.TextStyle.Font.Size = vg.Points(11)
-	p.Y.Label.TextStyle.Font.Size = vg.Points(11)
-	p.X.Tick.Label.Font.Size = vg.Points(10)
-	p.Y.Tick.Label.Font.Size = vg.Points(10)
-	p.Legend.TextStyle.Font.Size = vg.Points(10)
-	for _, f := range []*text.Style{&p.Title.TextStyle, &p.X.Label.TextStyle, &p.Y.Label.TextStyle,
-		&p.X.Tick.Label, &p.Y.Tick.Label, &p.Legend.TextStyle} {
-		f.Font.Variant = "Sans"
-	}
-	g := plotter.NewGrid()
-	g.Vertical.Color = color.RGBA{0xe4, 0xe4, 0xe4, 0xff}
-	g.Horizontal.Color = g.Vertical.Color
-	p.Add(g)
-	return p
+	return figure.New(title, x, y)
 }
 
 func dots(xy plotter.XYs, c color.Color, r vg.Length, shape draw.GlyphDrawer) (*plotter.Scatter, error) {
@@ -118,7 +89,7 @@ func bifurcationPlot(param, yLabel string, rows []SweepRow) (*plot.Plot, error) 
 			}
 		}
 	}
-	if err := addOrEmpty(p, xy, okBlack, vg.Points(0.9), draw.CircleGlyph{}); err != nil {
+	if err := addOrEmpty(p, xy, figure.Color(6), vg.Points(1), draw.CircleGlyph{}); err != nil {
 		return nil, err
 	}
 	setXRange(p, rows)
@@ -202,9 +173,9 @@ func estimatePlot(title, param, yLabel string, rows []SweepRow, get func(SweepRo
 		if err != nil {
 			return nil, err
 		}
-		z.Color = okGrey
+		z.Color = figure.Guide()
 		z.Width = vg.Points(1)
-		z.Dashes = []vg.Length{vg.Points(4), vg.Points(3)}
+		z.Dashes = figure.Dashes()
 		p.Add(z)
 	}
 	return p, nil
@@ -266,7 +237,7 @@ func planePlot(param string, rows []SweepRow) (*plot.Plot, error) {
 		p.X.Min, p.X.Max, p.Y.Min, p.Y.Max = 0, 1, 0, 1
 		return p, nil
 	}
-	s, err := dots(xy, okBlue, vg.Points(2.6), draw.CircleGlyph{})
+	s, err := dots(xy, figure.Main(), vg.Points(2.6), draw.CircleGlyph{})
 	if err != nil {
 		return nil, err
 	}
@@ -276,9 +247,8 @@ func planePlot(param string, rows []SweepRow) (*plot.Plot, error) {
 		return nil, err
 	}
 	for i := range lb.TextStyle {
-		lb.TextStyle[i].Font.Size = vg.Points(10)
-		lb.TextStyle[i].Font.Variant = "Sans"
-		lb.TextStyle[i].Color = okBlack
+		lb.TextStyle[i].Font = figure.Font(figure.MinTextSize)
+		lb.TextStyle[i].Color = figure.Color(6)
 		lb.TextStyle[i].XAlign = draw.XLeft
 	}
 	lb.Offset = vg.Point{X: vg.Points(4), Y: vg.Points(2)}

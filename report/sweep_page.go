@@ -12,7 +12,6 @@ import (
 	"unfold/figure"
 
 	"gonum.org/v1/plot"
-	"gonum.org/v1/plot/vg"
 )
 
 // sweepPage is the sweep's HTML page: one column, inline CSS and SVG, no scripts, nothing
@@ -230,7 +229,7 @@ func writeSweepPage(w io.Writer, parameter string, labels []string, rows []Sweep
 			return fmt.Errorf("sweep: figure %s: %w", f.name, err)
 		}
 		var b bytes.Buffer
-		if err := figure.Write(&b, "svg", 8*vg.Inch, 4.6*vg.Inch, [][]*plot.Plot{{p}}); err != nil {
+		if err := figure.Write(&b, "svg", figure.Width, figure.Height, [][]*plot.Plot{{p}}); err != nil {
 			return fmt.Errorf("sweep: figure %s: %w", f.name, err)
 		}
 		cap := f.caption

@@ -3,7 +3,6 @@ package main
 import (
 	"github.com/spf13/cobra"
 	"gonum.org/v1/plot"
-	"gonum.org/v1/plot/vg"
 
 	"unfold/analysis"
 	"unfold/figure"
@@ -172,7 +171,7 @@ func (a *app) runDenoise(path string, o *denoiseOptions) error {
 		if err != nil {
 			return err
 		}
-		if err := writeFigureFile(o.plot, path, 13*vg.Inch, 6.5*vg.Inch, [][]*plot.Plot{{pb, pa}}); err != nil {
+		if err := writeFigureFile(o.plot, path, [][]*plot.Plot{{pb, pa}}); err != nil {
 			return err
 		}
 	}

@@ -125,7 +125,7 @@ func (a *app) runDim(path string, o *dimOptions) error {
 		if err != nil {
 			return fmt.Errorf("dim: figure: %w", err)
 		}
-		if err := writeFigureFile(o.plot, path, figure.Width, figure.HeightFor(len(rows)), rows); err != nil {
+		if err := writeFigureFile(o.plot, path, rows); err != nil {
 			return err
 		}
 	}

@@ -9,7 +9,6 @@ import (
 	"github.com/spf13/cobra"
 	"github.com/spf13/pflag"
 	"gonum.org/v1/plot"
-	"gonum.org/v1/plot/vg"
 
 	"unfold/analysis"
 	"unfold/embed"
@@ -122,11 +121,7 @@ func (a *app) runEmbed(path string, o *embedOptions) error {
 		if err != nil {
 			return fmt.Errorf("embed: figure: %w", err)
 		}
-		w := 7 * vg.Inch
-		if len(rows[0]) > 1 {
-			w = 14 * vg.Inch
-		}
-		if err := writeFigureFile(o.plot, path, w, 6.5*vg.Inch, rows); err != nil {
+		if err := writeFigureFile(o.plot, path, rows); err != nil {
 			return err
 		}
 	}
@@ -143,7 +138,7 @@ func (a *app) runEmbed(path string, o *embedOptions) error {
 		if err != nil {
 			return fmt.Errorf("embed: figure: %w", err)
 		}
-		if err := writeFigureFile(o.stp, path, 9*vg.Inch, 6*vg.Inch, [][]*plot.Plot{{p}}); err != nil {
+		if err := writeFigureFile(o.stp, path, [][]*plot.Plot{{p}}); err != nil {
 			return err
 		}
 		body := &analysis.STPBody{Fractions: st.Fractions}

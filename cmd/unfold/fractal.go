@@ -8,7 +8,6 @@ import (
 	"github.com/spf13/cobra"
 	"github.com/spf13/pflag"
 	"gonum.org/v1/plot"
-	"gonum.org/v1/plot/vg"
 
 	"unfold/analysis"
 	"unfold/dimension"
@@ -117,7 +116,7 @@ func (a *app) runFractal(path string, o *fractalOptions) error {
 		if err != nil {
 			return err
 		}
-		if err := writeFigureFile(o.plot, path, 8*vg.Inch, 5.5*vg.Inch, [][]*plot.Plot{{pl}}); err != nil {
+		if err := writeFigureFile(o.plot, path, [][]*plot.Plot{{pl}}); err != nil {
 			return err
 		}
 	}

@@ -6,7 +6,6 @@ import (
 
 	"github.com/spf13/cobra"
 	"github.com/spf13/pflag"
-	"gonum.org/v1/plot/vg"
 
 	"unfold/analysis"
 	"unfold/embed"
@@ -123,7 +122,7 @@ func (a *app) runLag(path string, o *lagOptions) error {
 		if err != nil {
 			return fmt.Errorf("lag: figure: %w", err)
 		}
-		if err := writeFigureFile(o.plot, path, 9*vg.Inch, 7.5*vg.Inch, rows); err != nil {
+		if err := writeFigureFile(o.plot, path, rows); err != nil {
 			return err
 		}
 	}

@@ -11,7 +11,6 @@ import (
 	"codeberg.org/sbinet/npyio"
 	"gonum.org/v1/gonum/mat"
 	"gonum.org/v1/plot"
-	"gonum.org/v1/plot/vg"
 
 	"unfold/embed"
 	"unfold/figure"
@@ -42,8 +41,10 @@ func checkFigurePath(p string) error {
 	return usagef("figure %s: the name must end in .png or .svg", p)
 }
 
-// writeFigureFile draws rows into path (format from the extension) through an atomic file.
-func writeFigureFile(path, input string, w, h vg.Length, rows [][]*plot.Plot) error {
+// writeFigureFile draws rows into path (format from the extension) through an atomic file, on
+// the project's canvas (figure.SizeFor).
+func writeFigureFile(path, input string, rows [][]*plot.Plot) error {
+	w, h := figure.SizeFor(rows)
 	var buf bytes.Buffer
 	if err := figure.Write(&buf, strings.TrimPrefix(strings.ToLower(filepath.Ext(path)), "."), w, h, rows); err != nil {
 		return err

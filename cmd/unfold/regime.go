@@ -6,7 +6,6 @@ import (
 
 	"github.com/spf13/cobra"
 	"github.com/spf13/pflag"
-	"gonum.org/v1/plot/vg"
 
 	"unfold/analysis"
 	"unfold/embed"
@@ -122,7 +121,7 @@ func (a *app) runRegime(path string, o *regimeOptions) error {
 		if err != nil {
 			return err
 		}
-		if err := writeFigureFile(o.plot, path, 11*vg.Inch, 4*vg.Inch, rows); err != nil {
+		if err := writeFigureFile(o.plot, path, rows); err != nil {
 			return err
 		}
 	}

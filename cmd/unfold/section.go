@@ -6,7 +6,6 @@ import (
 
 	"github.com/spf13/cobra"
 	"gonum.org/v1/plot"
-	"gonum.org/v1/plot/vg"
 
 	"unfold/analysis"
 	"unfold/figure"
@@ -100,7 +99,7 @@ func (a *app) runSection(path string, o *sectionOptions) error {
 		if err != nil {
 			return err
 		}
-		if err := writeFigureFile(o.plot, path, 5.5*vg.Inch, 5.5*vg.Inch, [][]*plot.Plot{{p}}); err != nil {
+		if err := writeFigureFile(o.plot, path, [][]*plot.Plot{{p}}); err != nil {
 			return err
 		}
 	}
