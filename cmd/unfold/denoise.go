@@ -63,8 +63,8 @@ Steps, in this order, each only when asked for:
      'unfold lag' (--lag), q = 2 (--q), ε = 3 × the noise level estimated from the spread of the
      delay vectors across their local manifolds (--eps, --eps-factor), at most 5 iterations
      (--iterations). After each iteration the rms correction is printed; iteration stops when it
-     no longer shrinks (that pass is discarded). Distances use the maximum norm (--euclidean
-     for the Euclidean norm).
+     no longer shrinks (that pass is discarded). Distances use the maximum norm (--norm
+     euclidean for the Euclidean norm).
 
 --plot draws the delay picture x(t+lag) against x(t) before and after (at most 20000 points
 each).`,
@@ -96,7 +96,7 @@ each).`,
 	f.IntVar(&o.minNb, "min-neighbors", 0, "smallest neighbourhood for which a point is corrected (default: 2·m projective, 2 constant)")
 	f.IntVar(&o.maxNb, "max-neighbors", 0, "use at most this many nearest ε-neighbours per point (0: all; bounds the time on long records)")
 	f.IntVar(&o.theiler, "theiler", 0, "exclude neighbours closer in time than this many samples (0: only the point itself)")
-	f.BoolVar(&o.euclidean, "euclidean", false, "use the Euclidean norm instead of the maximum norm")
+	normFlag(f, &o.euclidean, "distance between delay vectors: euclidean or max")
 	f.Float64Var(&o.endWeight, "end-weight", d.EndWeight, "weight of the first and last delay coordinates (projective)")
 	f.Float64Var(&o.lowpass, "lowpass", 0, "low-pass corner frequency in cycles per time unit (Hz for seconds)")
 	f.Float64Var(&o.highpass, "highpass", 0, "high-pass corner frequency in cycles per time unit (Hz for seconds)")

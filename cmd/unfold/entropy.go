@@ -19,8 +19,9 @@ type entropyOptions struct {
 	maxLength   int
 	estimator   string
 	permutation int
-	delay       int
+	delay       int // --lag (old spelling --delay)
 	lzMax       int
+	plot        string
 }
 
 func newEntropyCmd(a *app) *cobra.Command {
@@ -40,12 +41,15 @@ reports, in bits:
 With --permutation D it reads a numeric signal instead and reports the permutation entropy of
 order D (Bandt & Pompe 2002): the entropy of the ordinal patterns of D samples, in bits,
 normalised by log2(D!), and its Jensen–Shannon statistical complexity (Rosso et al. 2007) with
-the smallest and largest complexity possible at that entropy (Martin, Plastino & Rosso 2006).`,
+the smallest and largest complexity possible at that entropy (Martin, Plastino & Rosso 2006);
+--plot draws that plane with the record's point.`,
 		Example: `  unfold symbols --alphabet 2 logistic.csv -o logistic.sym
   unfold entropy logistic.sym
   unfold entropy --json --max-length 12 logistic.sym
   # permutation entropy of order 4 of a numeric record
-  unfold entropy --permutation 4 --column x lorenz.csv`,
+  unfold entropy --permutation 4 --column x lorenz.csv
+  # order 5 at lag 2, with the complexity–entropy plane drawn
+  unfold entropy --permutation 5 --lag 2 --plot plane.svg --column x lorenz.csv`,
 		Args: exactArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
 			if o.permutation != 0 {
@@ -65,7 +69,9 @@ func addEntropyFlags(f *pflag.FlagSet, o *entropyOptions) {
 	f.IntVar(&o.maxLength, "max-length", d.MaxLength, "longest word length L (default: the supported length plus 2)")
 	f.StringVar(&o.estimator, "estimator", d.Estimator, "block-entropy estimator: grassberger, miller-madow or plugin")
 	f.IntVar(&o.permutation, "permutation", 0, "permutation entropy of order D (2 … 10) of a numeric signal instead of a symbol stream")
-	f.IntVar(&o.delay, "delay", 1, "with --permutation: spacing of the samples of a pattern")
+	f.IntVar(&o.delay, "lag", 1, "with --permutation: spacing of the samples of a pattern, in samples")
+	aliasFlag(f, "delay", "lag")
+	f.StringVar(&o.plot, "plot", "", "with --permutation: draw the complexity–entropy plane with this record's point (.png or .svg)")
 	f.IntVar(&o.lzMax, "lz-max", d.LZMax, "Lempel–Ziv complexity of the first N symbols only (it keeps them in memory, about 9·N bytes); block entropies always use the whole stream")
 }
 
@@ -76,6 +82,9 @@ func (o *entropyOptions) options() analysis.EntropyOptions {
 func (a *app) runEntropy(path string, o *entropyOptions) error {
 	if _, err := symbolic.ParseEstimator(o.estimator); err != nil {
 		return usagef("entropy: --estimator: %v", err)
+	}
+	if o.plot != "" {
+		return usagef("entropy: --plot draws the complexity–entropy plane of --permutation D; a symbol stream has no plot")
 	}
 	if o.maxLength < 0 {
 		return usagef("entropy: --max-length must be ≥ 1")
@@ -127,69 +136,6 @@ func (a *app) runEntropy(path string, o *entropyOptions) error {
 	}
 	fmt.Fprintf(a.stdout, "estimate: %s\n", p.Extrapolation)
 	for _, c := range res.Cautions {
-		fmt.Fprintf(a.stdout, "caution: %s\n", c)
-	}
-	return nil
-}
-
-type permutationParams struct {
-	Column string `json:"column"`
-	Order  int    `json:"order"`
-	Delay  int    `json:"delay"`
-}
-
-func (a *app) runPermutation(path string, o *entropyOptions) error {
-	if o.permutation < 2 || o.permutation > symbolic.MaxOrder {
-		return usagef("entropy: --permutation %d: want an order from 2 to %d", o.permutation, symbolic.MaxOrder)
-	}
-	if o.delay < 1 {
-		return usagef("entropy: --delay must be ≥ 1")
-	}
-	s, in, err := a.loadInput(path, &o.in)
-	if err != nil {
-		return err
-	}
-	p, err := symbolic.PermutationEntropy(s.Values, o.permutation, o.delay)
-	if err != nil {
-		return noAnswer(fmt.Errorf("entropy: %s: %w", path, err))
-	}
-	var cautions []string
-	f := 1
-	for i := 2; i <= o.permutation; i++ {
-		f *= i
-	}
-	if p.Patterns < 10*f {
-		cautions = append(cautions, fmt.Sprintf("%d patterns for %d possible ones (fewer than 10 per pattern): the entropy is biased low and forbidden patterns may be only unseen", p.Patterns, f))
-	}
-	if cautions == nil {
-		cautions = []string{}
-	}
-	// the complexity–entropy plane (Rosso et al. 2007) and its bounding curves at this entropy
-	pt := p.Complexity()
-	cmin, cmax := symbolic.ComplexityBounds(f, pt.Entropy)
-	if a.global.JSON {
-		return a.emitJSON("entropy", in, permutationParams{Column: s.Name, Order: o.permutation, Delay: o.delay},
-			struct {
-				Permutation *symbolic.Permutation `json:"permutation_entropy"`
-				Complexity  float64               `json:"permutation_complexity"`
-				MinCurve    float64               `json:"complexity_min"`
-				MaxCurve    float64               `json:"complexity_max"`
-				Cautions    []string              `json:"cautions"`
-			}{p, pt.Complexity, cmin, cmax, cautions})
-	}
-	g := func(v float64) string { return strconv.FormatFloat(v, 'f', 4, 64) }
-	rows := [][]string{
-		{"file", path},
-		{"order / delay", fmt.Sprintf("%d / %d", p.Order, p.Delay)},
-		{"patterns", strconv.Itoa(p.Patterns)},
-		{"permutation entropy", g(p.Bits) + " bits (normalised " + g(p.Normalized) + ", " + g(p.PerSymbol) + " bits per step)"},
-		{"patterns seen", fmt.Sprintf("%d of %d (%d forbidden or unseen)", p.Observed, f, p.Forbidden)},
-		{"complexity", g(pt.Complexity) + " (Jensen–Shannon; " + g(cmin) + " … " + g(cmax) + " possible at this entropy)"},
-	}
-	if err := a.table(rows); err != nil {
-		return err
-	}
-	for _, c := range cautions {
 		fmt.Fprintf(a.stdout, "caution: %s\n", c)
 	}
 	return nil

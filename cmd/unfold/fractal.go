@@ -42,7 +42,7 @@ exceeds 2·log10(N) (Eckmann & Ruelle 1992).
 
 When --lag or --theiler are not given they are chosen as 'unfold lag' does (first significant
 minimum of the mutual information; 1/e decay time of the autocorrelation) and printed. Distances
-use the maximum norm unless --euclidean. Radii are in signal units.`,
+use the maximum norm unless --norm euclidean. Radii are in signal units.`,
 		Example: `  # Hénon data, lag 1, dimensions 1…5, Theiler window 2
   unfold simulate henon --n 10000 -o henon.csv
   unfold fractal --column x --lag 1 --max-dim 5 --theiler 2 henon.csv
@@ -62,11 +62,12 @@ use the maximum norm unless --euclidean. Radii are in signal units.`,
 func addFractalFlags(f *pflag.FlagSet, o *fractalOptions) {
 	d := analysis.DefaultFractalOptions()
 	f.IntVar(&o.lag, "lag", d.Lag, "delay in samples (default: chosen from the mutual information)")
-	f.IntVar(&o.dim, "dim", 0, "compute only up to this dimension (same as --max-dim; kept for symmetry with other commands)")
 	f.IntVar(&o.maxDim, "max-dim", d.MaxDim, "largest embedding dimension")
+	aliasFlag(f, "dim", "max-dim") // o.dim is no longer bound: --dim sets o.maxDim
 	f.IntVar(&o.theiler, "theiler", d.Theiler, "Theiler window in samples (default: 1/e decay time of the autocorrelation; 0 excludes only the point itself)")
 	f.StringVar(&o.radii, "radii", d.Radii, "radii in signal units: a comma list (0.01,0.02,…) or lo:hi:count log-spaced (default: 40 radii from 10^-3.5 of the range up to the range)")
-	f.BoolVar(&o.euclidean, "euclidean", d.Euclidean, "use the Euclidean norm instead of the maximum norm")
+	o.euclidean = d.Euclidean
+	normFlag(f, &o.euclidean, "distance between delay vectors: euclidean or max")
 	f.StringVar(&o.csv, "csv", "", "write the correlation sums (dimension, r, c, pairs, local_slope) to this CSV file")
 	f.StringVar(&o.plot, "plot", "", "draw the local slopes d log C / d log r against r for every m (.png or .svg)")
 }
@@ -80,9 +81,6 @@ func (o *fractalOptions) options() analysis.FractalOptions {
 func (a *app) runFractal(path string, o *fractalOptions) error {
 	if err := checkFigurePath(o.plot); err != nil {
 		return err
-	}
-	if o.dim > 0 {
-		o.maxDim = o.dim
 	}
 	if _, err := analysis.CheckFractal(o.options()); err != nil {
 		return err

@@ -47,9 +47,9 @@ For a rank test at 5 %: 19 surrogates one-sided, 39 two-sided. Each surrogate ha
 random stream derived from --seed, so the files do not depend on --threads. Files are written
 atomically; the input is never overwritten.`,
 		Example: `  # 19 IAAFT surrogates of the column x into nulls/ (nulls/surrogate-001.csv … and nulls/summary.json)
-  unfold nulls --column x --method iaaft --count 19 -o nulls lorenz.csv
+  unfold nulls --column x --method iaaft --surrogates 19 -o nulls lorenz.csv
   # 39 random-phase surrogates with end-point matching, seed 7
-  unfold nulls --method phase --count 39 --match-ends --seed 7 -o ft signal.csv`,
+  unfold nulls --method phase --surrogates 39 --match-ends --seed 7 -o ft signal.csv`,
 		Args: exactArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
 			return a.runNulls(args[0], o)
@@ -58,7 +58,8 @@ atomically; the input is never overwritten.`,
 	addInputFlags(cmd, &o.in)
 	f := cmd.Flags()
 	f.StringVar(&o.method, "method", "iaaft", "surrogate method: phase, aaft or iaaft")
-	f.IntVar(&o.count, "count", 19, "number of surrogates K")
+	f.IntVar(&o.count, "surrogates", 19, "number of surrogates K")
+	aliasFlag(f, "count", "surrogates")
 	f.StringVarP(&o.out, "output", "o", "", "output directory (created if missing)")
 	f.IntVar(&o.maxIter, "max-iter", 200, "largest number of IAAFT iterations per surrogate")
 	f.BoolVar(&o.matchEnds, "match-ends", false, "use the segment whose first and last values and slopes match best (Schreiber & Schmitz 2000)")
@@ -98,7 +99,7 @@ func (a *app) runNulls(path string, o *nullsOptions) error {
 		return usagef("nulls: --method: %v", err)
 	}
 	if o.count < 1 || o.count > 100000 {
-		return usagef("nulls: --count %d: want 1…100000", o.count)
+		return usagef("nulls: --surrogates %d: want 1…100000", o.count)
 	}
 	if o.out == "" {
 		return usagef("nulls: give the output directory with -o DIR")

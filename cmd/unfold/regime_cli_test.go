@@ -33,7 +33,7 @@ func TestFractalNullsRegimeCLI(t *testing.T) {
 		}
 	}
 	nd := filepath.Join(dir, "nulls")
-	if _, errs, code = runCLI(t, "", "nulls", "--count", "3", "--method", "aaft", "-o", nd, p); code != 0 {
+	if _, errs, code = runCLI(t, "", "nulls", "--surrogates", "3", "--method", "aaft", "-o", nd, p); code != 0 {
 		t.Fatalf("nulls exit %d: %s", code, errs)
 	}
 	for _, f := range []string{"surrogate-001.csv", "surrogate-003.csv", "summary.json"} {

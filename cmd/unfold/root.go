@@ -52,6 +52,8 @@ an answer (the message says why), 2 bad usage or bad input (the message says wha
 		newStatesCmd(a),
 		newSweepCmd(a),
 	)
+	root.PersistentPreRunE = checkAliases
+	deprecationsTo(root, a.stderr)
 	return root
 }
 
