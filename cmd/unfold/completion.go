@@ -1,7 +1,12 @@
 package main
 
 import (
+	"strings"
+
 	"github.com/spf13/cobra"
+
+	"unfold/models"
+	"unfold/series"
 )
 
 // newCompletionCmd is `unfold completion bash|zsh|fish`: cobra's generators, in a command of
@@ -43,4 +48,90 @@ names. Load it in the current shell or save it where the shell looks for complet
 		})
 	}
 	return cmd
+}
+
+// flagWords are the values a flag takes, for shell completion: by flag name for every command
+// that has the flag, or by "command --flag" where commands give one name different values.
+// They repeat the lists in the flags' help texts.
+var flagWords = map[string][]string{
+	"format":            {"csv", "npy", "f32le", "f64le", "wav"},
+	"norm":              {"euclidean", "max"},
+	"partition":         {"search", "critical", "quantile", "threshold"},
+	"estimator":         {"grassberger", "miller-madow", "plugin"},
+	"gaps":              {"drop", "linear"},
+	"detrend":           {"none", "mean", "linear"},
+	"mi":                {"hist", "ksg"},
+	"direction":         {"up", "down", "both"},
+	"interp":            {"linear", "cubic"},
+	"nulls --method":    {"phase", "aaft", "iaaft"},
+	"lyapunov --method": {"kantz", "rosenstein"},
+	"denoise --method":  {"projective", "constant", "none"},
+}
+
+// registerCompletions adds value completion to every command of root: model names for
+// simulate, the words of flagWords, and the column names of the FILE already on the command
+// line for --column and --time-column (read from its header by series.Header).
+func registerCompletions(root *cobra.Command) {
+	var walk func(c *cobra.Command)
+	walk = func(c *cobra.Command) {
+		for name, words := range flagWords {
+			cmdName, flag, scoped := strings.Cut(name, " --")
+			if scoped && cmdName != c.Name() {
+				continue
+			}
+			if !scoped {
+				flag = name
+			}
+			if c.LocalFlags().Lookup(flag) == nil {
+				continue
+			}
+			if _, ok := flagWords[c.Name()+" --"+flag]; ok && !scoped {
+				continue
+			}
+			_ = c.RegisterFlagCompletionFunc(flag, cobra.FixedCompletions(words, cobra.ShellCompDirectiveNoFileComp))
+		}
+		for _, col := range []string{"column", "time-column"} {
+			if c.LocalFlags().Lookup(col) != nil {
+				_ = c.RegisterFlagCompletionFunc(col, completeColumns)
+			}
+		}
+		for _, s := range c.Commands() {
+			walk(s)
+		}
+	}
+	walk(root)
+	if sim, _, err := root.Find([]string{"simulate"}); err == nil && sim != root {
+		sim.ValidArgsFunction = func(_ *cobra.Command, args []string, _ string) ([]cobra.Completion, cobra.ShellCompDirective) {
+			if len(args) > 0 {
+				return nil, cobra.ShellCompDirectiveNoFileComp
+			}
+			var names []cobra.Completion
+			for _, s := range models.Catalog() {
+				names = append(names, cobra.CompletionWithDesc(s.Name, s.Title))
+			}
+			return names, cobra.ShellCompDirectiveNoFileComp
+		}
+	}
+}
+
+// completeColumns lists the column names of the first FILE argument given (a file with a
+// header line), or nothing.
+func completeColumns(_ *cobra.Command, args []string, _ string) ([]cobra.Completion, cobra.ShellCompDirective) {
+	for _, a := range args {
+		if a == "-" {
+			continue
+		}
+		names, err := series.Header(a)
+		if err != nil {
+			continue
+		}
+		var out []cobra.Completion
+		for _, n := range names {
+			if n != "" {
+				out = append(out, n)
+			}
+		}
+		return out, cobra.ShellCompDirectiveNoFileComp
+	}
+	return nil, cobra.ShellCompDirectiveNoFileComp
 }

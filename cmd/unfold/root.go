@@ -54,6 +54,7 @@ an answer (the message says why), 2 bad usage or bad input (the message says wha
 	)
 	root.PersistentPreRunE = checkAliases
 	deprecationsTo(root, a.stderr)
+	registerCompletions(root)
 	return root
 }
 
