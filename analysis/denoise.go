@@ -116,7 +116,7 @@ func CheckDenoise(o DenoiseOptions) ([]float64, string, error) {
 		}
 	}
 	if method != "none" && (o.Dim < 2 || o.Q < 1 || o.Q >= o.Dim || o.Iterations < 1 || o.Eps < 0 || o.Lag < 0) {
-		return nil, "", Usagef("denoise: want --dim >= 2, 1 <= --q < --dim, --iterations >= 1, --eps >= 0 and --lag >= 0 (got dim %d, q %d, iterations %d, eps %g, lag %d)", o.Dim, o.Q, o.Iterations, o.Eps, o.Lag)
+		return nil, "", Usagef("denoise: want --dim >= 2, 1 <= --q < --dim, --max-iter >= 1, --eps >= 0 and --lag >= 0 (got dim %d, q %d, iterations %d, eps %g, lag %d)", o.Dim, o.Q, o.Iterations, o.Eps, o.Lag)
 	}
 	if o.Resample < 0 {
 		return nil, "", Usagef("denoise: --resample %g: want a positive sampling interval", o.Resample)

@@ -24,8 +24,10 @@ func TestFlagAliases(t *testing.T) {
 		{"fractal", "euclidean", "norm", []string{"--euclidean"}, []string{"--norm", "euclidean"}, []string{"--lag", "1", "--theiler", "1", "--max-dim", "2"}},
 		{"fractal", "dim", "max-dim", []string{"--dim", "2"}, []string{"--max-dim", "2"}, []string{"--lag", "1", "--theiler", "1"}},
 		{"denoise", "euclidean", "norm", []string{"--euclidean"}, []string{"--norm", "euclidean"},
-			[]string{"--method", "constant", "--dim", "3", "--q", "1", "--lag", "1", "--iterations", "1", "-o", filepath.Join(dir, "d.csv")}},
+			[]string{"--method", "constant", "--dim", "3", "--q", "1", "--lag", "1", "--max-iter", "1", "-o", filepath.Join(dir, "d.csv")}},
 		{"nulls", "count", "surrogates", []string{"--count", "2"}, []string{"--surrogates", "2"}, []string{"-o", filepath.Join(dir, "n")}},
+		{"denoise", "iterations", "max-iter", []string{"--iterations", "1"}, []string{"--max-iter", "1"},
+			[]string{"--method", "constant", "--dim", "3", "--q", "1", "--lag", "1", "-o", filepath.Join(dir, "d2.csv")}},
 		{"entropy", "delay", "lag", []string{"--delay", "2"}, []string{"--lag", "2"}, []string{"--permutation", "3"}},
 	}
 	for _, c := range cases {

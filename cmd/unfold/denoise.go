@@ -62,7 +62,7 @@ Steps, in this order, each only when asked for:
      Defaults, all shown and overridable: m = 7 (--dim), lag from the mutual-information rule of
      'unfold lag' (--lag), q = 2 (--q), ε = 3 × the noise level estimated from the spread of the
      delay vectors across their local manifolds (--eps, --eps-factor), at most 5 iterations
-     (--iterations). After each iteration the rms correction is printed; iteration stops when it
+     (--max-iter). After each iteration the rms correction is printed; iteration stops when it
      no longer shrinks (that pass is discarded). Distances use the maximum norm (--norm
      euclidean for the Euclidean norm).
 
@@ -92,7 +92,8 @@ each).`,
 	f.IntVar(&o.q, "q", d.Q, "dimension of the local manifold (projective; also used by the noise estimate)")
 	f.Float64Var(&o.eps, "eps", 0, "neighbourhood radius in signal units (default: --eps-factor × the estimated noise level)")
 	f.Float64Var(&o.epsFactor, "eps-factor", d.EpsFactor, "default radius in units of the estimated noise level")
-	f.IntVar(&o.iterations, "iterations", d.Iterations, "largest number of iterations (stops earlier when the rms correction stops shrinking)")
+	f.IntVar(&o.iterations, "max-iter", d.Iterations, "largest number of iterations (stops earlier when the rms correction stops shrinking)")
+	aliasFlag(f, "iterations", "max-iter")
 	f.IntVar(&o.minNb, "min-neighbors", 0, "smallest neighbourhood for which a point is corrected (default: 2·m projective, 2 constant)")
 	f.IntVar(&o.maxNb, "max-neighbors", 0, "use at most this many nearest ε-neighbours per point (0: all; bounds the time on long records)")
 	f.IntVar(&o.theiler, "theiler", 0, "exclude neighbours closer in time than this many samples (0: only the point itself)")

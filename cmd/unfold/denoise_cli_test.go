@@ -33,7 +33,7 @@ func TestDenoiseCLI(t *testing.T) {
 	}
 	out := filepath.Join(dir, "clean.csv")
 	png := filepath.Join(dir, "clean.png")
-	stdout, stderr, code := runCLI(t, "", "denoise", "--json", "-q", "--lag", "1", "--iterations", "3", "-o", out, "--plot", png, in)
+	stdout, stderr, code := runCLI(t, "", "denoise", "--json", "-q", "--lag", "1", "--max-iter", "3", "-o", out, "--plot", png, in)
 	if code != 0 {
 		t.Fatalf("exit %d: %s", code, stderr)
 	}
