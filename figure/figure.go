@@ -82,12 +82,11 @@ func Slopes(r *dimension.Result, title string) (*plot.Plot, error) {
 	if r.D2 > 0 && isFinite(r.D2) {
 		HLine(p, r.D2, Guide(), "D2 = "+strconv.FormatFloat(r.D2, 'g', 4, 64))
 	}
-	lo := math.Min(0, minOf(endY))
-	hi := lo
+	lo, hi := 0.0, 0.0
 	for _, c := range r.Curves {
 		for _, s := range c.Slopes {
 			if isFinite(s) {
-				hi = math.Max(hi, s)
+				lo, hi = math.Min(lo, s), math.Max(hi, s)
 			}
 		}
 	}
