@@ -79,7 +79,7 @@ func interval(iv []*float64) (float64, float64) {
 }
 
 // SweepRows reads the result of every record of list from the batch directory dir (one
-// folder per record named FolderName(path), holding result.json) and reads each record again
+// folder per record named FolderName(CanonicalPath(path)), holding result.json) and reads each record again
 // for its bifurcation-diagram values and spectral lines. A record without a result gets
 // status "missing"; one whose result cannot be read gets status "error" with the reason. The
 // rows are sorted by the parameter.
@@ -97,7 +97,7 @@ func sweepRow(dir string, e SweepEntry, opt SweepOptions) SweepRow {
 	r := SweepRow{Value: e.Value, Path: e.Path, Labels: e.Labels, Dt: nan, Confidence: nan,
 		LambdaMax: nan, LambdaLo: nan, LambdaHi: nan, D2: nan, D2Lo: nan, D2Hi: nan,
 		EntropyRate: nan, Complexity: nan}
-	p := filepath.Join(dir, FolderName(e.Path), "result.json")
+	p := filepath.Join(dir, FolderName(CanonicalPath(e.Path)), "result.json") // as RunBatch names it
 	b, err := os.ReadFile(p)
 	if errors.Is(err, fs.ErrNotExist) {
 		r.Status, r.Error = "missing", "no result yet"
