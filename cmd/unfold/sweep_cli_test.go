@@ -209,3 +209,32 @@ func TestSweepBadList(t *testing.T) {
 		}
 	}
 }
+
+// TestSweepRelativeList: a LIST given by a relative path, with relative record paths (as
+// `simulate --sweep` writes it), finds the result folders the batch wrote (they are named after
+// the records' resolved absolute paths); no row is "missing".
+func TestSweepRelativeList(t *testing.T) {
+	dir := t.TempDir()
+	t.Chdir(dir)
+	if _, errs, code := runCLI(t, "", "simulate", "logistic", "--sweep", "r=3.5,4", "--n", "1200", "-o", "sw"); code != 0 {
+		t.Fatalf("simulate: exit %d: %s", code, errs)
+	}
+	if _, errs, code := runCLI(t, "", "sweep", "sw/list.csv", "--jobs", "2", "-o", "out"); code != 0 {
+		t.Fatalf("sweep: exit %d: %s", code, errs)
+	}
+	_, h, rows := readSweepCSV(t, "out")
+	st := -1
+	for i, c := range h {
+		if c == "status" {
+			st = i
+		}
+	}
+	if st < 0 || len(rows) != 2 {
+		t.Fatalf("header %v, %d rows", h, len(rows))
+	}
+	for _, r := range rows {
+		if r[st] == "missing" {
+			t.Errorf("row %v: missing, want the batch's result", r)
+		}
+	}
+}
