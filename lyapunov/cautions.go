@@ -32,6 +32,10 @@ func (r *Result) cautions(o Options) {
 				r.FirstStepRise, r.TotalRise))
 		}
 	}
+	if r.Repeats {
+		r.Cautions = append(r.Cautions, r.repeatsText())
+		return
+	}
 	if ch.FitErr == nil {
 		if ch.Fit.Plateau && r.AutoRange && (r.From != 1 || r.To != r.Horizon) {
 			r.Cautions = append(r.Cautions, fmt.Sprintf(
@@ -55,6 +59,13 @@ func (r *Result) cautions(o Options) {
 	if r.Method == Kantz && len(r.Curves) > 1 {
 		r.epsCautions()
 	}
+}
+
+// repeatsText says what the bound of an exactly repeating record means.
+func (r *Result) repeatsText() string {
+	ch := &r.Curves[r.Chosen]
+	return fmt.Sprintf("periodic orbit: the neighbours of %d of the %d reference points repeat exactly (distance 0 at every one of the %d steps), so the divergence does not grow and λ1 is not positive: λ1 ≤ 0, reported as its upper bound 0 with the interval [0, 0] (distance 0 is drawn at the record's resolution, %.3g). A stable periodic orbit of a map has λ1 < 0, which a record lying exactly on its orbit cannot measure",
+		ch.Repeating, ch.References, r.Horizon, r.Resolution)
 }
 
 // epsCautions warns when the Kantz curves depend on ε: their slopes differ by more than 25 %
@@ -152,6 +163,12 @@ func (r *Result) CheckRange() RangeCheck {
 	if ch.FitErr != nil {
 		rc.Bounded = true
 		rc.Reasons = append(rc.Reasons, "no linear range: "+ch.FitErr.Error())
+		return rc
+	}
+	if r.Repeats {
+		rc.Bounded = true
+		rc.Steps = r.To - r.From
+		rc.Reasons = []string{r.repeatsText()}
 		return rc
 	}
 	rc.Steps = r.To - r.From
