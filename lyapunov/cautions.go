@@ -43,8 +43,8 @@ func (r *Result) cautions(o Options) {
 				r.Horizon, r.From, r.To))
 		} else if ch.Fit.Plateau && r.AutoRange {
 			r.Cautions = append(r.Cautions, fmt.Sprintf(
-				"no stable stretch of the divergence curve raises the separation by a factor e: the separation stays bounded over the %d steps (periodic or quasiperiodic motion, noise, or a horizon too short for exponential growth to show — try a longer --horizon), so the slope is the mean growth over steps %d…%d and is expected near 0 for bounded motion",
-				r.Horizon, r.From, r.To))
+				"no stable stretch of the divergence curve raises the separation by a factor e: the separation stays bounded over the %d steps (periodic or quasiperiodic motion, noise, or a horizon too short for exponential growth to show — try a longer --horizon), so the slope is the mean growth over steps %d…%d and is expected near 0 for bounded motion%s",
+				r.Horizon, r.From, r.To, map[bool]string{true: "; a positive slope is no evidence of chaos, so the interval reaches down to 0", false: ""}[r.LambdaPerSample > 0]))
 		}
 		if n := r.To - r.From; n < 4 {
 			r.Cautions = append(r.Cautions, fmt.Sprintf(

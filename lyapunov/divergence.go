@@ -349,6 +349,14 @@ func Divergence(x []float64, opt Options) (*Result, error) {
 			lo, hi = math.Min(lo, sl), math.Max(hi, sl)
 		}
 	}
+	// A curve read over the whole horizon because it stays bounded (it never rises by a
+	// factor e) is no evidence of a positive exponent: bounded motion on a torus or a limit
+	// cycle has λ1 = 0 and its separation may still creep up a little. Such an interval is
+	// extended down to 0. A falling bounded curve (neighbours converging onto a stable orbit)
+	// keeps its interval: convergence is evidence of λ1 < 0.
+	if ch.Fit.Plateau && r.AutoRange && r.From == 1 && r.To == o.Horizon && lo > 0 {
+		lo = 0
+	}
 	r.IntervalPerSample = [2]float64{lo, hi}
 	r.Interval = [2]float64{lo / o.Dt, hi / o.Dt}
 	r.cautions(o)

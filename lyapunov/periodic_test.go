@@ -108,3 +108,20 @@ func TestDivergenceLogisticCoverage(t *testing.T) {
 		t.Errorf("the interval misses ln 2 in %d of 8 records", miss)
 	}
 }
+
+// TestDivergenceTorusInterval: on a torus (sin t + sin φt, φ the golden mean) λ1 = 0 (exact:
+// quasiperiodic motion; CHECKS.md §6 lists it as regular). The divergence stays bounded, so a
+// slightly positive mean growth must not come with an interval above zero.
+func TestDivergenceTorusInterval(t *testing.T) {
+	x := sinesX(4000, 0.25)
+	r, err := Divergence(x, Options{Lag: 5, Dim: 4, Theiler: 10, Dt: 0.25, Seed: 1})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if rc := r.CheckRange(); !rc.Bounded {
+		t.Fatalf("range check %+v, want bounded", rc)
+	}
+	if !(r.Interval[0] <= 0 && 0 <= r.Interval[1]) {
+		t.Errorf("λ1 = %v [%v, %v] on a torus; want an interval holding 0", r.Lambda, r.Interval[0], r.Interval[1])
+	}
+}
