@@ -187,9 +187,7 @@ func ParseSweepList(r io.Reader, name, dir, parameter string) (*SweepList, error
 		if !filepath.IsAbs(p) {
 			p = filepath.Join(dir, p)
 		}
-		// The batch names result folders after the canonical path (RunBatch); the rows
-		// must find them under the same name, however LIST spells its paths.
-		p = CanonicalPath(p)
+		p = filepath.Clean(p)
 		if first, dup := seen[p]; dup {
 			return nil, bad(rc.line, rc.cols[pathCol], "the record %s is already listed on line %d", p, first)
 		}

@@ -279,23 +279,3 @@ func TestSweepSinesQuasiperiodic(t *testing.T) {
 		t.Errorf("transitions claim a positive λ1 on a torus:\n%s", out)
 	}
 }
-
-// TestSweepRelativeList: a LIST given by a relative path, with relative record paths, finds
-// the results the batch wrote (the rows once came out "missing": the batch named the result
-// folders after the absolute path, the rows looked them up under the relative one).
-func TestSweepRelativeList(t *testing.T) {
-	dir := t.TempDir()
-	t.Chdir(dir)
-	if _, errs, code := runCLI(t, "", "simulate", "logistic", "--sweep", "r=3.5,4", "--n", "1000", "-o", "recs"); code != 0 {
-		t.Fatalf("simulate: exit %d: %s", code, errs)
-	}
-	if _, errs, code := runCLI(t, "", "sweep", filepath.Join("recs", "list.csv"), "-o", "res"); code != 0 {
-		t.Fatalf("sweep: exit %d: %s", code, errs)
-	}
-	_, h, rows := readSweepCSV(t, "res")
-	for _, row := range rows {
-		if st := row[len(h)-2]; st != report.StatusOK && st != report.StatusPartial {
-			t.Errorf("r = %s: status %q, want ok or partial", row[0], st)
-		}
-	}
-}
