@@ -276,6 +276,10 @@ func CorrelationDimension(x []float64, opt Options) (*Result, error) {
 		}
 		if cv.Fitted {
 			cv.Hi = math.Min(cv.Hi, float64(m)) // the interval does not reach above m either
+			// A correlation sum never decreases with r, so its slope is never negative: a
+			// negative fit is round-off on a flat curve (an exactly periodic record, whose
+			// pairs sit at distance 0), and D2 = 0 there.
+			cv.D2, cv.Lo, cv.Hi = math.Max(cv.D2, 0), math.Max(cv.Lo, 0), math.Max(cv.Hi, 0)
 		}
 		res.Curves = append(res.Curves, cv)
 	}
@@ -503,6 +507,8 @@ func (r *Result) decide(n int) error {
 		r.Cautions = append(r.Cautions, fmt.Sprintf("the fitted slope exceeds the embedding dimension %d, which no correlation sum can do: no real scaling range (a trend, non-stationarity or too few points); D2 is reported as %d, a lower bound", r.Dim, r.Dim))
 		r.D2, r.Lo, r.Hi = m, math.Min(r.Lo, m), math.Min(r.Hi, m)
 	}
+	// Nor can it be negative (a correlation sum never decreases with r).
+	r.D2, r.Lo, r.Hi = math.Max(r.D2, 0), math.Max(r.Lo, 0), math.Max(r.Hi, 0)
 	if !r.Saturated {
 		r.Cautions = append(r.Cautions, fmt.Sprintf("D2 does not saturate up to dimension %d: the estimate %.2g is a lower bound of a high-dimensional or stochastic signal", last.Dim, r.D2))
 	}

@@ -1,6 +1,7 @@
 package embed
 
 import (
+	"encoding/binary"
 	"fmt"
 	"math"
 
@@ -18,6 +19,11 @@ const (
 	// DimNoiseLimited: neither rule applies because noise keeps the false-neighbour fraction
 	// above the threshold; the dimension is where the fraction and Cao's E1 stop improving.
 	DimNoiseLimited = "noise-limited"
+	// DimPeriodic: neither rule can be read because every nearest neighbour is an exact
+	// duplicate, and the record repeats exactly with some period P (an exactly periodic orbit,
+	// as a map settled on a stable cycle gives); the dimension is the smallest m whose P delay
+	// vectors of one period are all distinct.
+	DimPeriodic = "exact-period"
 )
 
 // TrendLimit is the |correlation| of a record with time above which it counts as trended
@@ -93,7 +99,10 @@ type DimChoice struct {
 	// NoiseLike is true when |E2(d) − 1| < 0.1 for every d: "consistent with noise" (Cao
 	// 1997: for random data E2 ≈ 1 for all d; the 0.1 band is CHECKS.md §5's tolerance).
 	NoiseLike bool
-	Cautions  []string
+	// Period is the exact period of the record in samples (x_{i+P} = x_i for every i) when
+	// the dimension was read from it (DimPeriodic); 0 otherwise.
+	Period   int
+	Cautions []string
 }
 
 // ChooseDimension scans m = 1 … MaxDim: in each dimension one kd-tree is built over the
@@ -120,7 +129,7 @@ func ChooseDimension(x []float64, opt DimOptions) (*DimChoice, error) {
 	if err != nil {
 		return nil, err
 	}
-	c.decide()
+	c.decide(x)
 	return c, nil
 }
 
@@ -308,7 +317,7 @@ func timeCorrelation(x []float64, mean, ss float64) float64 {
 	return sxt / math.Sqrt(stt*ss)
 }
 
-func (c *DimChoice) decide() {
+func (c *DimChoice) decide(x []float64) {
 	trended := math.Abs(c.Trend) > TrendLimit
 	minDim := 1
 	if trended {
@@ -367,6 +376,7 @@ func (c *DimChoice) decide() {
 				c.Reason += fmt.Sprintf("; the false-neighbour fraction never falls below %.3g (lowest %.4f)", c.Threshold, lo)
 			}
 		}
+	case math.IsInf(c.minFNN(), 1) && c.exactPeriod(x, minDim):
 	case math.IsInf(c.minFNN(), 1):
 		c.Reason = fmt.Sprintf("no dimension up to %d: in every dimension each point's nearest neighbour is an exact duplicate (distance 0), as in a signal of a few repeated values such as a square wave or a few-level signal, so neither the false-neighbour fraction nor Cao's E1 can be read", c.MaxDim)
 	default:
@@ -435,6 +445,58 @@ func (c *DimChoice) noiseLimited(minDim int) (int, string) {
 		return best, fmt.Sprintf("noise-limited: neither the false-neighbour fraction nor Cao's E1 levels off up to dimension %d; m = %d has the lowest false fraction (%.4f)", c.MaxDim, best, c.FNN[best-1].Fraction)
 	}
 	return 0, ""
+}
+
+// exactPeriod handles a record whose nearest neighbours are all exact duplicates: when the
+// record repeats exactly, x_{i+P} = x_i for every i, with a period P of at most a quarter of
+// its length (at least four repeats), its motion is a periodic orbit of P states, and the
+// dimension is the smallest m ≥ minDim whose P delay vectors x_i … x_{i+(m−1)τ}, i = 0 … P−1,
+// are all distinct: every state then has its own point, so a neighbour at distance 0 is the
+// same state a whole number of periods later and stays at distance 0 (no false neighbour in
+// the sense of Kennel, Brown & Abarbanel 1992). It sets the choice and reports true; false
+// when the record does not repeat exactly or its states cannot be told apart within MaxDim
+// (a square wave, whose flat stretches make states that no delay vector separates).
+func (c *DimChoice) exactPeriod(x []float64, minDim int) bool {
+	n := len(x)
+	p := 0
+	for q := 1; q <= n/4 && p == 0; q++ {
+		i := 0
+		for i+q < n && x[i+q] == x[i] {
+			i++
+		}
+		if i+q == n {
+			p = q
+		}
+	}
+	if p == 0 {
+		return false
+	}
+	lag := c.Lag
+	for m := minDim; m <= c.MaxDim; m++ {
+		if p+(m-1)*lag > n {
+			break
+		}
+		seen := make(map[string]bool, p)
+		key := make([]byte, 0, 8*m)
+		distinct := true
+		for i := 0; i < p && distinct; i++ {
+			key = key[:0]
+			for k := range m {
+				key = binary.LittleEndian.AppendUint64(key, math.Float64bits(x[i+k*lag]))
+			}
+			if seen[string(key)] {
+				distinct = false
+			}
+			seen[string(key)] = true
+		}
+		if distinct {
+			c.Dimension, c.Method, c.Period = m, DimPeriodic, p
+			c.Reason = fmt.Sprintf("every nearest neighbour is an exact duplicate and the record repeats exactly with period %d samples (x(i+%d) = x(i) for every i: a periodic orbit); its %d states are distinct delay vectors from m = %d: m = %d", p, p, p, m, m)
+			c.Cautions = append(c.Cautions, fmt.Sprintf("the record repeats exactly with period %d samples: a periodic orbit with no measurable spread, so the false-neighbour fraction and Cao's E1 cannot be read; the dimension only tells its %d states apart", p, p))
+			return true
+		}
+	}
+	return false
 }
 
 func (c *DimChoice) minFNN() float64 {

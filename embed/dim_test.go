@@ -6,6 +6,7 @@ import (
 	"strings"
 	"testing"
 
+	"unfold/internal/testsignals"
 	"unfold/neighbors"
 )
 
@@ -228,5 +229,35 @@ func TestChooseDimensionDuplicatesOnly(t *testing.T) {
 	}
 	if c.Dimension != 0 || strings.Contains(c.Reason, "Inf") || !strings.Contains(c.Reason, "exact duplicate") {
 		t.Errorf("dimension %d, reason %q", c.Dimension, c.Reason)
+	}
+}
+
+// TestChooseDimensionExactPeriod: the logistic map x' = r x (1 − x) at r = 3.5 settles on its
+// stable period-4 orbit (the 2 → 4 doubling is at r = 1 + √6 = 3.449, the 4 → 8 doubling near
+// 3.544; Feigenbaum 1978, from memory for 3.544), and after a long transient the floating-point
+// orbit repeats exactly. Every nearest neighbour is then an exact duplicate, yet the four
+// states are distinct values, so m = 1 embeds the orbit (exact: a one-dimensional map).
+// At r = 3.835 (inside the period-3 window opening at 1 + √8 = 3.8284, exact) the period is 3.
+func TestChooseDimensionExactPeriod(t *testing.T) {
+	for _, tc := range []struct {
+		r      float64
+		period int
+	}{{3.5, 4}, {3.835, 3}} {
+		x := testsignals.Logistic(2000, tc.r, 0.3, 5000)
+		c, err := ChooseDimension(x, DimOptions{Lag: 1, MaxDim: 6, Theiler: 1, Threads: 2})
+		if err != nil {
+			t.Fatal(err)
+		}
+		if c.Dimension != 1 || c.Method != DimPeriodic || c.Period != tc.period {
+			t.Errorf("r = %v: dimension %d (%s), period %d; want 1 (%s), period %d; %s", tc.r, c.Dimension, c.Method, c.Period, DimPeriodic, tc.period, c.Reason)
+		}
+	}
+	// A trended record never gets m = 1: a period-4 orbit riding on a ramp does not repeat.
+	x := testsignals.Logistic(2000, 3.5, 0.3, 5000)
+	for i := range x {
+		x[i] += float64(i) / 100
+	}
+	if c, err := ChooseDimension(x, DimOptions{Lag: 1, MaxDim: 4, Theiler: 1}); err == nil && c.Method == DimPeriodic {
+		t.Errorf("a trended record was taken as exactly periodic: %s", c.Reason)
 	}
 }

@@ -32,6 +32,10 @@ func (r *Result) cautions(o Options) {
 				r.FirstStepRise, r.TotalRise))
 		}
 	}
+	if r.Repeats {
+		r.Cautions = append(r.Cautions, r.repeatsText())
+		return
+	}
 	if ch.FitErr == nil {
 		if ch.Fit.Plateau && r.AutoRange && (r.From != 1 || r.To != r.Horizon) {
 			r.Cautions = append(r.Cautions, fmt.Sprintf(
@@ -39,8 +43,8 @@ func (r *Result) cautions(o Options) {
 				r.Horizon, r.From, r.To))
 		} else if ch.Fit.Plateau && r.AutoRange {
 			r.Cautions = append(r.Cautions, fmt.Sprintf(
-				"no stable stretch of the divergence curve raises the separation by a factor e: the separation stays bounded over the %d steps (periodic or quasiperiodic motion, noise, or a horizon too short for exponential growth to show — try a longer --horizon), so the slope is the mean growth over steps %d…%d and is expected near 0 for bounded motion",
-				r.Horizon, r.From, r.To))
+				"no stable stretch of the divergence curve raises the separation by a factor e: the separation stays bounded over the %d steps (periodic or quasiperiodic motion, noise, or a horizon too short for exponential growth to show — try a longer --horizon), so the slope is the mean growth over steps %d…%d and is expected near 0 for bounded motion%s",
+				r.Horizon, r.From, r.To, map[bool]string{true: "; a positive slope is no evidence of chaos, so the interval reaches down to 0", false: ""}[r.LambdaPerSample > 0]))
 		}
 		if n := r.To - r.From; n < 4 {
 			r.Cautions = append(r.Cautions, fmt.Sprintf(
@@ -55,6 +59,13 @@ func (r *Result) cautions(o Options) {
 	if r.Method == Kantz && len(r.Curves) > 1 {
 		r.epsCautions()
 	}
+}
+
+// repeatsText says what the bound of an exactly repeating record means.
+func (r *Result) repeatsText() string {
+	ch := &r.Curves[r.Chosen]
+	return fmt.Sprintf("periodic orbit: the neighbours of %d of the %d reference points repeat exactly (distance 0 at every one of the %d steps), so the divergence does not grow and λ1 is not positive: λ1 ≤ 0, reported as its upper bound 0 with the interval [0, 0] (distance 0 is drawn at the record's resolution, %.3g). A stable periodic orbit of a map has λ1 < 0, which a record lying exactly on its orbit cannot measure",
+		ch.Repeating, ch.References, r.Horizon, r.Resolution)
 }
 
 // epsCautions warns when the Kantz curves depend on ε: their slopes differ by more than 25 %
@@ -152,6 +163,12 @@ func (r *Result) CheckRange() RangeCheck {
 	if ch.FitErr != nil {
 		rc.Bounded = true
 		rc.Reasons = append(rc.Reasons, "no linear range: "+ch.FitErr.Error())
+		return rc
+	}
+	if r.Repeats {
+		rc.Bounded = true
+		rc.Steps = r.To - r.From
+		rc.Reasons = []string{r.repeatsText()}
 		return rc
 	}
 	rc.Steps = r.To - r.From

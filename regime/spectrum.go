@@ -72,7 +72,7 @@ type LineOptions struct {
 // harmonics of one fundamental (periodic), integer combinations of two or three incommensurate
 // fundamentals (quasiperiodic), or whether the power is broadband.
 //
-// The rule: a bin of the Welch spectrum is a line when it is a local maximum over ±2 bins,
+// The rule: a bin of the Welch spectrum is a line when it is a local maximum over ±1 bin,
 // lies above 2 bins from zero frequency, exceeds its background — the running median over
 // ±max(8, SegLen/64) bins — by the χ²_ν/ν quantile at 1 − α/bins (ν = DOF; Wilson–Hilferty
 // approximation), and is not within the Hann leakage skirt of a stronger line. Each line's
@@ -119,8 +119,12 @@ func LineAnalysis(x []float64, dt float64, opt LineOptions) (*Lines, error) {
 		if bg[k] <= 0 || p <= thr*bg[k] {
 			continue
 		}
+		// A local maximum over ±1 bin: lines closer to a stronger one than its Hann skirt are
+		// left out below (d < 2.5 bins, or under 10× its leakage), so a wider window only
+		// hides resolvable lines 2.5–4.5 bins from a stronger one, whose main lobe can top
+		// them 2 bins away (two tones 3 bins apart lost the weaker).
 		local := true
-		for d := -2; d <= 2; d++ {
+		for d := -1; d <= 1; d++ {
 			if j := k + d; d != 0 && j >= 0 && j < nb && sp.Power[j] > p {
 				local = false
 			}
