@@ -157,11 +157,9 @@ func (a *app) runReport(cmd *cobra.Command, path string, args []string, o *repor
 			return err
 		}
 	} else {
-		rows := [][]string{{"stage", "wall time (s)", "status"}}
-		for _, st := range res.Provenance.Stages {
-			rows = append(rows, []string{st.Key, fmt.Sprintf("%.2f", st.Seconds), st.Status})
-		}
-		if err := a.table(rows); err != nil {
+		// the stage times went to stderr as the stages ran (and are in the page's provenance):
+		// stdout has the summary, as at the top of the page
+		if err := a.printSummary(res.Summary); err != nil {
 			return err
 		}
 		fmt.Fprintf(a.stdout, "page: %s\n", filepath.Join(o.output, "report.html"))
@@ -176,4 +174,16 @@ func (a *app) runReport(cmd *cobra.Command, path string, args []string, o *repor
 		return noAnswer(errors.New("report: some stages gave no answer (the report is written): " + strings.Join(why, "; ")))
 	}
 	return nil
+}
+
+// printSummary writes the summary block of the page as a table on stdout.
+func (a *app) printSummary(sm *report.Summary) error {
+	if sm == nil {
+		return nil
+	}
+	var rows [][]string
+	for _, r := range sm.Rows() {
+		rows = append(rows, []string{r[0], r[1]})
+	}
+	return a.table(rows)
 }
