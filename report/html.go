@@ -22,7 +22,7 @@ const page = `<!DOCTYPE html>
 *, *::before, *::after { box-sizing: border-box; }
 body { font-family: system-ui, -apple-system, "Segoe UI", "DejaVu Sans", sans-serif; color: #1b1b1b;
   background: #fff; max-width: 46rem; margin: 1.2rem auto 2rem; padding: 0 1rem; line-height: 1.45; font-size: 15px;
-  overflow-wrap: anywhere; }
+  overflow-wrap: break-word; }
 h1 { font-size: 1.45rem; margin: 0 0 .15rem; }
 h2 { font-size: 1.2rem; margin: 2.2rem 0 .6rem; padding-bottom: .2rem; border-bottom: 2px solid #1f5fa8; }
 .sub { color: #555; margin: 0 0 .6rem; font-size: .9rem; }
@@ -58,6 +58,9 @@ footer { margin-top: 2.5rem; color: #666; font-size: .8rem; border-top: 1px soli
 @media (max-width: 540px) {
   body { font-size: 14px; padding: 0 .6rem; }
   th { width: 40%; }
+  #summary { padding: .4rem .6rem .2rem; }
+  #summary th, #summary td { display: block; width: 100%; padding: .1rem .2rem; }
+  #summary th { border: 0; padding-top: .35rem; }
   nav#contents ol { columns: 1; }
   table.evidence, table.evidence tbody, table.evidence tr, table.evidence td { display: block; width: 100%; }
   table.evidence tr:first-child { display: none; }
@@ -80,7 +83,7 @@ footer { margin-top: 2.5rem; color: #666; font-size: .8rem; border-top: 1px soli
 <body>
 <header>
 <h1>{{.Title}}</h1>
-<p class="sub">unfold report · {{.Status}} · {{.Samples}} samples, Δt = {{.Dt}} · {{.Wall}} s</p>
+<p class="sub">unfold report · {{.Status}} · {{.Samples}} samples, Δt = {{.Dt}} {{or .Input.Units.Time "time units"}} · analysed in {{.Wall}} s</p>
 </header>
 {{with .Summary}}<section id="summary" aria-label="Summary">
 <p class="verdict"><strong>{{.Regime}}</strong>{{if .Strength}} — {{.Strength}} (confidence {{printf "%.2f" .Confidence}}){{end}}{{if not .Regime}}{{.Verdict}}{{end}}</p>

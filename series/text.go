@@ -396,8 +396,9 @@ func resolveColumn(spec string, names []string, ncol int) int {
 }
 
 // SplitUnit splits a column header that states its unit in brackets or parentheses at its
-// end — "strain [µε]", "time (s)", "U (mV)" — into the name and the unit. A header without
-// such a suffix (or with nothing before or inside it) is returned whole with an empty unit.
+// end — "strain [µε]", "U[mV]", "time (s)" — into the name and the unit. Parentheses count
+// only after a space ("x(t)" is a name). A header without such a suffix (or with nothing
+// before or inside it) is returned whole with an empty unit.
 func SplitUnit(header string) (name, unit string) {
 	h := strings.TrimSpace(header)
 	open := byte(0)
@@ -412,6 +413,9 @@ func SplitUnit(header string) (name, unit string) {
 	i := strings.LastIndexByte(h, open)
 	if i <= 0 {
 		return header, ""
+	}
+	if open == '(' && h[i-1] != ' ' && h[i-1] != '\t' {
+		return header, "" // "x(t)", "f(x)": a name, not a unit
 	}
 	name, unit = strings.TrimSpace(h[:i]), strings.TrimSpace(h[i+1:len(h)-1])
 	if name == "" || unit == "" || strings.ContainsAny(unit, "[]()") {
