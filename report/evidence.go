@@ -89,7 +89,7 @@ func Evidence(an *regime.Analysis, u analysis.Units) []EvidenceLine {
 
 // sentence says what the test of key found, in words, with its numbers.
 func sentence(key string, it regime.Item, ev *regime.Evidence, u analysis.Units) string {
-	g := func(v float64) string { return strconv.FormatFloat(v, 'g', 3, 64) }
+	g := sig3
 	if ev == nil {
 		return it.Detail
 	}
@@ -143,7 +143,7 @@ func sentence(key string, it regime.Item, ev *regime.Evidence, u analysis.Units)
 		if z.K < 0.5 {
 			reads = "near 0: regular motion"
 		}
-		return fmt.Sprintf("the 0-1 test gives K = %s (%s; %d samples, every %d-th)", strconv.FormatFloat(z.K, 'f', 2, 64), reads, z.Samples, z.Subsample)
+		return fmt.Sprintf("the 0-1 test gives K = %s (%s; %d samples, taking every %d of the record's)", strconv.FormatFloat(z.K, 'f', 2, 64), reads, z.Samples, z.Subsample)
 	case "lyapunov":
 		l := ev.Lyapunov
 		if l == nil || math.IsNaN(l.Value) {

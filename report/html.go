@@ -66,6 +66,7 @@ footer { margin-top: 2.5rem; color: #666; font-size: .8rem; border-top: 1px soli
   table.evidence tr:first-child { display: none; }
   table.evidence tr { border-bottom: 1px solid #e2e2e2; padding: .2rem 0; }
   table.evidence td { border: 0; padding: .1rem .3rem; }
+  table.evidence td:first-child { font-weight: 600; }
 }
 @page { size: A4; margin: 14mm 14mm 16mm; }
 @media print {

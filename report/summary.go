@@ -22,7 +22,7 @@ type Estimate struct {
 
 // Text is "3.65 [3.42, 3.87] nats per second".
 func (e *Estimate) Text() string {
-	g := func(v float64) string { return strings.TrimSuffix(fmt.Sprintf("%#.3g", v), ".") }
+	g := sig3
 	t := fmt.Sprintf("%s [%s, %s]", g(e.Value), g(e.Lo), g(e.Hi))
 	if e.Unit != "" {
 		t += " " + e.Unit
@@ -92,6 +92,16 @@ func TimeText(v float64, u string) string {
 		return fmtG4(v) + " time units"
 	}
 	return fmtG4(v) + " " + u
+}
+
+// sig3 writes v with three significant digits, keeping trailing zeros ("2.30"), so that a
+// number reads the same wherever the page shows it.
+func sig3(v float64) string {
+	t := fmt.Sprintf("%#.3g", v)
+	if strings.ContainsAny(t, "e") {
+		return strconv.FormatFloat(v, 'g', 3, 64)
+	}
+	return strings.TrimSuffix(t, ".")
 }
 
 func fmtG4(v float64) string { return strconv.FormatFloat(v, 'g', 4, 64) }

@@ -55,3 +55,12 @@ func TestSummarizeUnitsAndRanking(t *testing.T) {
 		t.Errorf("with no verdict-stage cautions, want the symbol stage's: %q", got)
 	}
 }
+
+// TestSig3 checks the page's three-significant-digit numbers (trailing zeros kept).
+func TestSig3(t *testing.T) {
+	for v, want := range map[float64]string{2.2990: "2.30", 3.6504: "3.65", 100: "100", 0.00919: "0.00919", -0.5: "-0.500"} {
+		if got := sig3(v); got != want {
+			t.Errorf("sig3(%g) = %q, want %q", v, got, want)
+		}
+	}
+}
