@@ -74,7 +74,9 @@ the lag chosen above: the return map with the partition's cut(s); the stream and
 kept in memory, not written, so "output" and "sidecar" are empty) and entropy (the defaults of
 'unfold entropy' on that stream: the block-entropy and entropy-rate curves). A stage that gives no
 answer is recorded with its reason and the others still run. One line per stage goes to stderr
-with its wall time (and a bar for long stages when stderr is a terminal).
+with its wall time (and a bar for long stages when stderr is a terminal); stdout gets the
+summary that opens the page: the verdict, λ1 and D2 with units, the embedding, the cautions
+that matter most and the figure to read first.
 
 --demo analyses the demo signal built into the binary (testdata/demo/strip.csv: a synthetic
 strain record, see testdata/demo/README.md).`,
