@@ -168,7 +168,7 @@ func Stages(res *analysis.Result, s *series.Series, fig figure.Record, view View
 			}
 			return &Section{JSON: js, Cautions: b.Cautions, Summary: [][2]string{
 				{"delay vectors", fmt.Sprintf("%d of dimension %d at lag %d samples (%s %s)", b.Vectors, b.Dimension, b.Lag, fmtG6(b.LagTime), timeUnits(fig.TimeUnit))},
-				{"lag / dimension from", p.LagMethod + " / " + p.DimMethod},
+				{"lag / dimension from", ruleWords(p.LagMethod) + " / " + ruleWords(p.DimMethod)},
 			}, Figures: []Figure{{Name: "embed",
 				Caption: "The delay plot x(t+τ) against x(t) and, for m ≥ 3, an oblique view of (x(t), x(t+τ), x(t+2τ)).",
 				Width:   w, Height: h, Rows: rows}}}, nil
@@ -183,6 +183,24 @@ func Stages(res *analysis.Result, s *series.Series, fig figure.Record, view View
 		stages[i].Took = stageTime(res, stages[i].Key)
 	}
 	return stages
+}
+
+// ruleWords puts an embedding rule's code in words ("mi-first-significant-minimum" → "first
+// significant minimum of the mutual information"); an unknown code loses its hyphens.
+func ruleWords(code string) string {
+	switch code {
+	case "mi-first-significant-minimum":
+		return "first significant minimum of the mutual information"
+	case "mi-at-bias-level-lag-1":
+		return "lag 1 (the mutual information is at its bias level)"
+	case "decorrelated-within-one-sample-lag-1":
+		return "lag 1 (decorrelated within one sample)"
+	case "cao-e1-saturation":
+		return "saturation of Cao's E1"
+	case "given":
+		return "given on the command line"
+	}
+	return strings.ReplaceAll(code, "-", " ")
 }
 
 // yesNo is "yes" or "no".
@@ -255,8 +273,8 @@ func lyapunovStage(res *analysis.Result, fig figure.Record) Stage {
 		}
 		if b.LambdaMax != nil {
 			sum = append(sum,
-				[2]string{"λ1 (largest exponent)", fmt.Sprintf("%s %s (%s bits per %s; %s nats per sample)", g(r.Lambda), PerTime(fig.TimeUnit), g(r.Lambda/ln2), timeWord(fig.TimeUnit), g(r.LambdaPerSample))},
-				[2]string{"interval", fmt.Sprintf("[%s, %s] %s (%.0f %%, block bootstrap, %d resamples)", g(r.Interval[0]), g(r.Interval[1]), PerTime(fig.TimeUnit), 100*r.Level, r.Reps)},
+				[2]string{"λ1 (largest exponent)", fmt.Sprintf("%s %s (%s bits per %s; %s nats per sample)", sig3(r.Lambda), PerTime(fig.TimeUnit), sig3(r.Lambda/ln2), timeWord(fig.TimeUnit), sig3(r.LambdaPerSample))},
+				[2]string{"interval", fmt.Sprintf("[%s, %s] %s (%.0f %%, block bootstrap, %d resamples)", sig3(r.Interval[0]), sig3(r.Interval[1]), PerTime(fig.TimeUnit), 100*r.Level, r.Reps)},
 				[2]string{"fit range", fmt.Sprintf("steps %d … %d (%s)", r.From, r.To, b.Fit.Criterion)})
 		} else {
 			sum = append(sum, [2]string{"λ1 (largest exponent)", "no answer: " + b.Reason})
@@ -301,13 +319,13 @@ func fractalStage(res *analysis.Result, fg figure.Record) Stage {
 				if perDim != "" {
 					perDim += ", "
 				}
-				perDim += fmt.Sprintf("m %d: %s", c.Dim, g(c.D2))
+				perDim += fmt.Sprintf("m %d: %s", c.Dim, sig3(c.D2))
 			}
 		}
 		return &Section{JSON: js, Cautions: b.Cautions, Figures: fig, Summary: [][2]string{
-			{"D2", fmt.Sprintf("%s [%s, %s] (dimensionless; 95 %% bootstrap) at m = %d, saturated: %s", g(r.D2), g(r.Lo), g(r.Hi), r.Dim, yesNo(r.Saturated))},
+			{"D2", fmt.Sprintf("%s [%s, %s] (dimensionless; 95 %% bootstrap) at m = %d, saturated: %s", sig3(r.D2), sig3(r.Lo), sig3(r.Hi), r.Dim, yesNo(r.Saturated))},
 			{"scaling range", fmt.Sprintf("r = %s … %s %s", g(r.RLo), g(r.RHi), signalUnits(fg.Unit))},
-			{"Takens estimate", g(r.Takens)},
+			{"Takens estimate", sig3(r.Takens)},
 			{"per dimension", perDim},
 			{"lag, Theiler window", fmt.Sprintf("%d samples, %d samples; %s norm", p.Lag, p.Theiler, p.Norm)},
 		}}, nil
