@@ -89,6 +89,9 @@ func timeWord(u string) string {
 // TimeText is a time with its unit: "0.116 s", or "0.116 time units" when the unit is unknown.
 func TimeText(v float64, u string) string {
 	if u == "" || u == "time units" {
+		if v == 1 {
+			return "1 time unit"
+		}
 		return fmtG4(v) + " time units"
 	}
 	return fmtG4(v) + " " + u
@@ -102,6 +105,14 @@ func sig3(v float64) string {
 		return strconv.FormatFloat(v, 'g', 3, 64)
 	}
 	return strings.TrimSuffix(t, ".")
+}
+
+// plural is word, with an "s" unless n is 1.
+func plural(n int, word string) string {
+	if n == 1 {
+		return word
+	}
+	return word + "s"
 }
 
 func fmtG4(v float64) string { return strconv.FormatFloat(v, 'g', 4, 64) }
@@ -296,7 +307,7 @@ func (s *Summary) Rows() [][2]string {
 func (s *Summary) EmbeddingText() string {
 	lag := "no lag chosen"
 	if s.Lag > 0 {
-		lag = fmt.Sprintf("lag %d samples (%s)", s.Lag, TimeText(s.LagTime, s.Units.Time))
+		lag = fmt.Sprintf("lag %d %s (%s)", s.Lag, plural(s.Lag, "sample"), TimeText(s.LagTime, s.Units.Time))
 	}
 	dim := "no dimension chosen"
 	if s.Dim > 0 {
