@@ -398,8 +398,8 @@ func symbolsStage(res *analysis.Result, title string) Stage {
 		if run.Applied == "section" {
 			from = fmt.Sprintf("%d section crossings, value %s", len(run.Values), run.ValueName)
 			if p.Section != nil && p.Section.Method == "hyperplane" {
-				from += fmt.Sprintf(" (plane through the %s, %s, lag %d samples from %s)", p.Section.LevelFrom, p.Section.Direction,
-					p.Section.Lag, p.Section.LagMethod)
+				from += fmt.Sprintf(" (plane through the %s, %s, lag %d samples: %s)", p.Section.LevelFrom, p.Section.Direction,
+					p.Section.Lag, ruleWords(p.Section.LagMethod))
 			}
 		}
 		lagArg := ""
@@ -407,7 +407,7 @@ func symbolsStage(res *analysis.Result, title string) Stage {
 			lagArg = " --lag " + strconv.Itoa(p.Section.Lag)
 		}
 		sum := [][2]string{
-			{"record", run.Rec.Kind + " (" + run.RecFrom + "): " + run.Rec.Reason},
+			{"record", run.Rec.Kind + " (" + strings.Replace(run.RecFrom, "data", "judged from the data", 1) + "): " + run.Rec.Reason},
 			{"symbols from", from},
 			{"partition", fmt.Sprintf("%s, %d symbols %q, cut(s) at %s", part.Kind, part.K(), run.Alphabet, ThresholdText(part.Thresholds))},
 			{"score", g(part.Score) + " (symbolic false-neighbour fraction; lower is better)"},
