@@ -81,11 +81,22 @@ type Input struct {
 	SHA256  string  `json:"sha256"`
 	Samples int     `json:"samples"`
 	Dt      float64 `json:"dt"`
+	// Units are the record's time and signal units; Envelope writes them as the top-level
+	// "units" object beside "input" (DESIGN.md §3), not inside it.
+	Units Units `json:"-"`
+}
+
+// Units are the "units" object of every JSON output: the unit of time (of dt, lags in time,
+// periods; exponents are per this unit) and of the signal's values, from the input's header
+// ("time (s)", "strain [µε]") or the --time-unit and --unit flags. Empty when not known.
+type Units struct {
+	Time   string `json:"time"`
+	Signal string `json:"signal"`
 }
 
 // Envelope returns the indented JSON object every command prints with --json (with its final
-// newline): "command", "version", "input" (when in is not nil) and "parameters", followed by
-// the fields of body (a struct or map that marshals to a JSON object), in that order.
+// newline): "command", "version", "input" and "units" (when in is not nil) and "parameters",
+// followed by the fields of body (a struct or map that marshals to a JSON object), in that order.
 func Envelope(command, version string, in *Input, params any, body any) ([]byte, error) {
 	var buf bytes.Buffer
 	buf.WriteString(`{"command":`)
@@ -99,6 +110,11 @@ func Envelope(command, version string, in *Input, params any, body any) ([]byte,
 		b, err := json.Marshal(in)
 		if err != nil {
 			return nil, fmt.Errorf("%s: encoding JSON input: %w", command, err)
+		}
+		buf.Write(b)
+		buf.WriteString(`,"units":`)
+		if b, err = json.Marshal(in.Units); err != nil {
+			return nil, fmt.Errorf("%s: encoding JSON units: %w", command, err)
 		}
 		buf.Write(b)
 	}

@@ -229,7 +229,7 @@ func Run(ctx context.Context, s *series.Series, opt Options) (*Result, error) {
 	}
 	in := opt.Input
 	if in == nil {
-		in = &Input{Path: path, Samples: s.Len(), Dt: s.Dt}
+		in = &Input{Path: path, Samples: s.Len(), Dt: s.Dt, Units: Units{Time: s.TimeUnit, Signal: s.Unit}}
 	}
 	if opt.Prep.Detrend == "" {
 		opt.Prep.Detrend = "none" // as the command line records it

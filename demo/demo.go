@@ -17,6 +17,13 @@ const Name = "strip.csv"
 // Path is where the same file lives in the repository.
 const Path = "testdata/demo/strip.csv"
 
+// TimeUnit and Unit are the units of the demo signal's columns (its header "t,strain" does
+// not state them; testdata/demo/README.md does): the report of --demo shows them.
+const (
+	TimeUnit = "s"
+	Unit     = "µε"
+)
+
 // Strip returns a copy of the demo signal's bytes (CSV with columns t in seconds and strain
 // in microstrain, 250 samples per second).
 func Strip() []byte { return append([]byte(nil), strip...) }

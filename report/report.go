@@ -22,6 +22,7 @@ import (
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/vg"
 
+	"unfold/analysis"
 	"unfold/figure"
 	"unfold/series"
 )
@@ -48,6 +49,9 @@ type Section struct {
 	Figures []Figure
 	// Cautions are shown under the table.
 	Cautions []string
+	// Evidence, when not empty, is shown as a table of plain sentences after the rows (the
+	// regime stage's evidence).
+	Evidence []EvidenceLine
 }
 
 // Stage is one step of the chain. Run may use the results of the stages before it (the
@@ -68,6 +72,8 @@ type Input struct {
 	SHA256  string  `json:"sha256"`
 	Samples int     `json:"samples"`
 	Dt      float64 `json:"dt"`
+	// Units are written as the top-level "units" object of result.json.
+	Units analysis.Units `json:"-"`
 }
 
 // StageRecord is the provenance of one stage: its wall time (computing and drawing its
@@ -117,6 +123,8 @@ type Result struct {
 	Titles     map[string]string   // stage key → heading
 	Sections   map[string]*Section // stage key → section (only for stages that gave an answer)
 	Errors     map[string]string   // stage key → why it gave no answer
+	// Summary is the block at the top of the page (Build sets it; nil: the page has none).
+	Summary *Summary
 }
 
 // Status is StatusOK when every stage gave an answer, else StatusPartial.
@@ -184,8 +192,8 @@ func Run(h Header, stages []Stage, before func(key string), after func(key strin
 	return r
 }
 
-// JSON returns result.json: "command" ("report"), "version", "input", "parameters",
-// "status", "provenance", then each stage's object under its key in the order the stages ran.
+// JSON returns result.json: "command" ("report"), "version", "input", "units", "parameters",
+// "status", "summary" (the page's summary block; null without one), "provenance", then each stage's object under its key in the order the stages ran.
 func (r *Result) JSON() ([]byte, error) {
 	var buf bytes.Buffer
 	put := func(key string, v any) error {
@@ -210,8 +218,8 @@ func (r *Result) JSON() ([]byte, error) {
 	for _, kv := range []struct {
 		k string
 		v any
-	}{{"command", "report"}, {"version", r.Header.Version}, {"input", r.Header.Input}, {"parameters", params},
-		{"status", r.Status()}, {"provenance", r.Provenance}} {
+	}{{"command", "report"}, {"version", r.Header.Version}, {"input", r.Header.Input}, {"units", r.Header.Input.Units}, {"parameters", params},
+		{"status", r.Status()}, {"summary", r.Summary}, {"provenance", r.Provenance}} {
 		if err := put(kv.k, kv.v); err != nil {
 			return nil, err
 		}

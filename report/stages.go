@@ -28,7 +28,9 @@ type View struct {
 // Build renders res (the chain on s, analysis.Run) as the page's sections and returns the
 // report: Run over Stages, each stage's wall time the chain's plus its drawing.
 func Build(h Header, res *analysis.Result, s *series.Series, fig figure.Record, view View) *Result {
-	return Run(h, Stages(res, s, fig, view), nil, nil)
+	r := Run(h, Stages(res, s, fig, view), nil, nil)
+	r.Summary = Summarize(res, h.Input.Units)
+	return r
 }
 
 func fmtG6(v float64) string { return strconv.FormatFloat(v, 'g', 6, 64) }
@@ -77,17 +79,18 @@ func Stages(res *analysis.Result, s *series.Series, fig figure.Record, view View
 			if s.Unit != "" {
 				unit = " " + s.Unit
 			}
+			tu := func(v float64) string { return g(v) + " " + timeUnits(fig.TimeUnit) }
 			return &Section{JSON: js, Figures: []Figure{f}, Cautions: sm.Cautions, Summary: [][2]string{
 				{"signal", s.Name},
 				{"samples", strconv.Itoa(sm.Samples)},
-				{"sampling interval", g(sm.Dt) + " time units (duration " + g(sm.Duration) + ")"},
+				{"sampling interval", tu(sm.Dt) + " (duration " + tu(sm.Duration) + ")"},
 				{"mean ± std", g(sm.Mean) + " ± " + g(sm.Std) + unit},
 				{"range", g(sm.Min) + " … " + g(sm.Max) + unit},
 				{"quantization step", g(sm.Quantization) + unit},
-				{"dominant period", g(sm.DominantPeriod) + " time units (" + g(sm.DominantPeriod/sm.Dt) + " samples)"},
+				{"dominant period", tu(sm.DominantPeriod) + " (" + g(sm.DominantPeriod/sm.Dt) + " samples)"},
 				{"gaps filled", strconv.Itoa(sm.GapsFilled)},
-				{"stationary", fmt.Sprintf("%v (mean shift %.1f, variance shift %.1f standard errors)",
-					sm.Stationarity.Stationary, sm.Stationarity.MeanShift, sm.Stationarity.VarianceShift)},
+				{"stationary", fmt.Sprintf("%s (mean shift %.1f, variance shift %.1f standard errors)",
+					yesNo(sm.Stationarity.Stationary), sm.Stationarity.MeanShift, sm.Stationarity.VarianceShift)},
 			}}, nil
 		}},
 		{Key: "lag", Title: "Delay: mutual information and autocorrelation", Run: func() (*Section, error) {
@@ -104,8 +107,8 @@ func Stages(res *analysis.Result, s *series.Series, fig figure.Record, view View
 				return nil, fmt.Errorf("lag: figure: %w", err)
 			}
 			sum := [][2]string{
-				{"chosen lag", fmt.Sprintf("%d samples = %s time units", c.Lag, fmtG6(b.LagTime))},
-				{"rule", c.Method + ": " + c.Reason},
+				{"chosen lag", fmt.Sprintf("%d samples = %s %s", c.Lag, fmtG6(b.LagTime), timeUnits(fig.TimeUnit))},
+				{"rule", c.Reason},
 				{"estimator", p.Estimator},
 				{"autocorrelation", acfText(b.AutocorrelationZero, b.AutocorrelationDecay, p.MaxLag)},
 				{"suggested Theiler window", strconv.Itoa(b.Theiler) + " samples"},
@@ -136,10 +139,10 @@ func Stages(res *analysis.Result, s *series.Series, fig figure.Record, view View
 			}
 			return &Section{JSON: js, Cautions: b.Cautions, Summary: [][2]string{
 				{"chosen dimension", chosen},
-				{"rule", c.Method + ": " + c.Reason},
+				{"rule", c.Reason},
 				{"false neighbours / Cao", dimText(c.FNNDim, c.MaxDim) + " / " + dimText(c.CaoDim, c.MaxDim)},
-				{"consistent with noise (E2 ≈ 1)", strconv.FormatBool(c.NoiseLike)},
-				{"lag, Theiler window", fmt.Sprintf("%d samples (%s), %d samples (%s)", p.Lag, p.LagMethod, p.Theiler, p.TheilerFrom)},
+				{"consistent with noise (E2 ≈ 1)", yesNo(c.NoiseLike)},
+				{"lag, Theiler window", fmt.Sprintf("%d samples, %d samples", p.Lag, p.Theiler)},
 			}, Figures: []Figure{{Name: "dim",
 				Caption: "False-neighbour fraction and Cao's E1, E2 against the dimension; the chosen dimension is marked.",
 				Width:   figure.Width, Height: figure.HeightFor(len(rows)), Rows: rows}}}, stageErr(res, "dim")
@@ -159,15 +162,15 @@ func Stages(res *analysis.Result, s *series.Series, fig figure.Record, view View
 			}
 			w, h := figure.SizeFor(rows)
 			return &Section{JSON: js, Cautions: b.Cautions, Summary: [][2]string{
-				{"delay vectors", fmt.Sprintf("%d of dimension %d at lag %d samples", b.Vectors, b.Dimension, b.Lag)},
-				{"lag / dimension from", p.LagMethod + " / " + p.DimMethod},
+				{"delay vectors", fmt.Sprintf("%d of dimension %d at lag %d samples (%s %s)", b.Vectors, b.Dimension, b.Lag, fmtG6(b.LagTime), timeUnits(fig.TimeUnit))},
+				{"lag / dimension from", ruleWords(p.LagMethod) + " / " + ruleWords(p.DimMethod)},
 			}, Figures: []Figure{{Name: "embed",
 				Caption: "The delay plot x(t+τ) against x(t) and, for m ≥ 3, an oblique view of (x(t), x(t+τ), x(t+2τ)).",
 				Width:   w, Height: h, Rows: rows}}}, nil
 		}},
-		lyapunovStage(res, fig.Title),
-		fractalStage(res, fig.Title),
-		regimeStage(res, fig.Title),
+		lyapunovStage(res, fig),
+		fractalStage(res, fig),
+		regimeStage(res, fig),
 		symbolsStage(res, fig.Title),
 		entropyStage(res),
 	}
@@ -175,6 +178,48 @@ func Stages(res *analysis.Result, s *series.Series, fig figure.Record, view View
 		stages[i].Took = stageTime(res, stages[i].Key)
 	}
 	return stages
+}
+
+// ruleWords puts an embedding rule's code in words ("mi-first-significant-minimum" → "first
+// significant minimum of the mutual information"); an unknown code loses its hyphens.
+func ruleWords(code string) string {
+	switch code {
+	case "mi-first-significant-minimum":
+		return "first significant minimum of the mutual information"
+	case "mi-at-bias-level-lag-1":
+		return "lag 1 (the mutual information is at its bias level)"
+	case "decorrelated-within-one-sample-lag-1":
+		return "lag 1 (decorrelated within one sample)"
+	case "cao-e1-saturation":
+		return "saturation of Cao's E1"
+	case "given":
+		return "given on the command line"
+	}
+	return strings.ReplaceAll(code, "-", " ")
+}
+
+// yesNo is "yes" or "no".
+func yesNo(b bool) string {
+	if b {
+		return "yes"
+	}
+	return "no"
+}
+
+// timeUnits names a time unit in a table: the unit, or "time units" when unknown.
+func timeUnits(u string) string {
+	if u == "" {
+		return "time units"
+	}
+	return u
+}
+
+// signalUnits names the signal's unit in a table: the unit, or "signal units" when unknown.
+func signalUnits(u string) string {
+	if u == "" {
+		return "signal units"
+	}
+	return u
 }
 
 // dimText is a dimension found by one criterion, or "none up to MAX" when it found none.
@@ -199,7 +244,8 @@ func acfText(zero, decay, maxLag int) string {
 
 // lyapunovStage renders the chain's "lyapunov" stage: the divergence curve with the fit range
 // shaded.
-func lyapunovStage(res *analysis.Result, title string) Stage {
+func lyapunovStage(res *analysis.Result, fig figure.Record) Stage {
+	title := fig.Title
 	return Stage{Key: "lyapunov", Title: "Largest Lyapunov exponent: divergence curve", Run: func() (*Section, error) {
 		noFit := stageErr(res, "lyapunov")
 		if res.Lyapunov == nil {
@@ -217,17 +263,16 @@ func lyapunovStage(res *analysis.Result, title string) Stage {
 		r := run.R
 		g := func(v float64) string { return strconv.FormatFloat(v, 'g', 4, 64) }
 		sum := [][2]string{
-			{"embedding", fmt.Sprintf("lag %d samples (%s), dimension %d (%s), Theiler window %d samples (%s)",
-				p.Lag, p.LagMethod, p.Dim, p.DimMethod, p.Theiler, p.TheilerFrom)},
-			{"curve", fmt.Sprintf("%s, horizon %d steps (%s time units), %d reference points", p.Method, r.Horizon, g(float64(r.Horizon)*r.Dt), r.ReferencePoints)},
+			{"embedding", fmt.Sprintf("lag %d samples, dimension %d, Theiler window %d samples", p.Lag, p.Dim, p.Theiler)},
+			{"curve", fmt.Sprintf("%s, horizon %d steps (%s %s), %d reference points", p.Method, r.Horizon, g(float64(r.Horizon)*r.Dt), timeUnits(fig.TimeUnit), r.ReferencePoints)},
 		}
 		if b.LambdaMax != nil {
 			sum = append(sum,
-				[2]string{"λ_max", fmt.Sprintf("%s nats per time unit (%s bits; %s nats per sample)", g(r.Lambda), g(r.Lambda/ln2), g(r.LambdaPerSample))},
-				[2]string{"interval", fmt.Sprintf("[%s, %s] nats per time unit (%.0f %%, block bootstrap, %d resamples)", g(r.Interval[0]), g(r.Interval[1]), 100*r.Level, r.Reps)},
+				[2]string{"λ1 (largest exponent)", fmt.Sprintf("%s %s (%s bits per %s; %s nats per sample)", sig3(r.Lambda), PerTime(fig.TimeUnit), sig3(r.Lambda/ln2), timeWord(fig.TimeUnit), sig3(r.LambdaPerSample))},
+				[2]string{"interval", fmt.Sprintf("[%s, %s] %s (%.0f %%, block bootstrap, %d resamples)", sig3(r.Interval[0]), sig3(r.Interval[1]), PerTime(fig.TimeUnit), 100*r.Level, r.Reps)},
 				[2]string{"fit range", fmt.Sprintf("steps %d … %d (%s)", r.From, r.To, b.Fit.Criterion)})
 		} else {
-			sum = append(sum, [2]string{"λ_max", "no answer: " + b.Reason})
+			sum = append(sum, [2]string{"λ1 (largest exponent)", "no answer: " + b.Reason})
 		}
 		return &Section{JSON: js, Summary: sum, Cautions: b.Cautions, Figures: []Figure{{Name: "lyapunov",
 			Caption: "Mean log separation of initially close delay vectors against the steps ahead; the fit range is shaded and λ_max is the slope there.",
@@ -237,7 +282,8 @@ func lyapunovStage(res *analysis.Result, title string) Stage {
 
 // fractalStage renders the chain's "fractal" stage: the local slopes of the correlation sums
 // with the scaling range drawn thicker (also when no range was found: the curves say why).
-func fractalStage(res *analysis.Result, title string) Stage {
+func fractalStage(res *analysis.Result, fg figure.Record) Stage {
+	title := fg.Title
 	return Stage{Key: "fractal", Title: "Correlation dimension: local slopes of the correlation sums", Run: func() (*Section, error) {
 		err := stageErr(res, "fractal")
 		run := res.FractalCurves
@@ -268,15 +314,15 @@ func fractalStage(res *analysis.Result, title string) Stage {
 				if perDim != "" {
 					perDim += ", "
 				}
-				perDim += fmt.Sprintf("m %d: %s", c.Dim, g(c.D2))
+				perDim += fmt.Sprintf("m %d: %s", c.Dim, sig3(c.D2))
 			}
 		}
 		return &Section{JSON: js, Cautions: b.Cautions, Figures: fig, Summary: [][2]string{
-			{"D2", fmt.Sprintf("%s [%s, %s] (95 %% bootstrap) at m = %d, saturated %v", g(r.D2), g(r.Lo), g(r.Hi), r.Dim, r.Saturated)},
-			{"scaling range", fmt.Sprintf("r = %s … %s signal units", g(r.RLo), g(r.RHi))},
-			{"Takens estimate", g(r.Takens)},
+			{"D2", fmt.Sprintf("%s [%s, %s] (dimensionless; 95 %% bootstrap) at m = %d, saturated: %s", sig3(r.D2), sig3(r.Lo), sig3(r.Hi), r.Dim, yesNo(r.Saturated))},
+			{"scaling range", fmt.Sprintf("r = %s … %s %s", g(r.RLo), g(r.RHi), signalUnits(fg.Unit))},
+			{"Takens estimate", sig3(r.Takens)},
 			{"per dimension", perDim},
-			{"lag, Theiler window", fmt.Sprintf("%d samples (%s), %d samples (%s); %s norm", p.Lag, p.LagMethod, p.Theiler, p.TheilerBy, p.Norm)},
+			{"lag, Theiler window", fmt.Sprintf("%d samples, %d samples; %s norm", p.Lag, p.Theiler, p.Norm)},
 		}}, nil
 	}}
 }
@@ -284,7 +330,8 @@ func fractalStage(res *analysis.Result, title string) Stage {
 // regimeStage renders the chain's "regime" stage: the verdict, the evidence table (λ1 from the
 // lyapunov stage, D2 from the fractal stage), the cautions and the evidence figure (spectrum
 // with its lines, surrogate tests).
-func regimeStage(res *analysis.Result, title string) Stage {
+func regimeStage(res *analysis.Result, fig figure.Record) Stage {
+	title := fig.Title
 	return Stage{Key: "regime", Title: "Regime: verdict and evidence", Run: func() (*Section, error) {
 		if res.Regime == nil {
 			return nil, stageErr(res, "regime")
@@ -308,16 +355,14 @@ func regimeStage(res *analysis.Result, title string) Stage {
 			d2From = "from the fractal stage"
 		}
 		sum := [][2]string{
-			{"regime", v.Regime},
-			{"confidence", strconv.FormatFloat(v.Confidence, 'f', 2, 64)},
+			{"regime", v.Regime + " — " + Strength(v.Regime, v.Confidence)},
+			{"confidence", strconv.FormatFloat(v.Confidence, 'f', 2, 64) + " (the weighted share of the evidence that supports the verdict)"},
 			{"rule", v.Rule},
-			{"embedding", fmt.Sprintf("lag %d (%s), dimension %d (%s), Theiler window %d samples; λ1 %s; D2 %s; %d IAAFT surrogates",
-				ev.Lag, p.LagMethod, ev.Dim, p.DimMethod, ev.Theiler, lyapFrom, d2From, p.Surrogates)},
-			{"evidence", "points to (weight): detail"},
+			{"embedding", fmt.Sprintf("lag %d samples, dimension %d, Theiler window %d samples; λ1 %s; D2 %s; %d IAAFT surrogates",
+				ev.Lag, ev.Dim, ev.Theiler, lyapFrom, d2From, p.Surrogates)},
 		}
-		sum = append(sum, EvidenceRows(v)...)
 		w, h := figure.SizeFor(rows)
-		return &Section{JSON: js, Summary: sum, Cautions: b.Cautions, Figures: []Figure{{Name: "regime",
+		return &Section{JSON: js, Summary: sum, Cautions: b.Cautions, Evidence: Evidence(an, analysis.Units{Time: fig.TimeUnit, Signal: fig.Unit}), Figures: []Figure{{Name: "regime",
 			Caption: "The evidence: the spectrum with its significant lines, and the data's nonlinear prediction error and time-reversal asymmetry (bars) against the IAAFT surrogates' (points), in standard deviations of the surrogates from their mean.",
 			Width:   w, Height: h, Rows: rows}}}, nil
 	}}
@@ -345,8 +390,8 @@ func symbolsStage(res *analysis.Result, title string) Stage {
 		if run.Applied == "section" {
 			from = fmt.Sprintf("%d section crossings, value %s", len(run.Values), run.ValueName)
 			if p.Section != nil && p.Section.Method == "hyperplane" {
-				from += fmt.Sprintf(" (plane through the %s, %s, lag %d samples from %s)", p.Section.LevelFrom, p.Section.Direction,
-					p.Section.Lag, p.Section.LagMethod)
+				from += fmt.Sprintf(" (plane through the %s, %s, lag %d samples: %s)", p.Section.LevelFrom, p.Section.Direction,
+					p.Section.Lag, ruleWords(p.Section.LagMethod))
 			}
 		}
 		lagArg := ""
@@ -354,7 +399,7 @@ func symbolsStage(res *analysis.Result, title string) Stage {
 			lagArg = " --lag " + strconv.Itoa(p.Section.Lag)
 		}
 		sum := [][2]string{
-			{"record", run.Rec.Kind + " (" + run.RecFrom + "): " + run.Rec.Reason},
+			{"record", run.Rec.Kind + " (" + strings.Replace(run.RecFrom, "data", "judged from the data", 1) + "): " + run.Rec.Reason},
 			{"symbols from", from},
 			{"partition", fmt.Sprintf("%s, %d symbols %q, cut(s) at %s", part.Kind, part.K(), run.Alphabet, ThresholdText(part.Thresholds))},
 			{"score", g(part.Score) + " (symbolic false-neighbour fraction; lower is better)"},

@@ -23,4 +23,7 @@ type ReadOptions struct {
 	// sample out) or "linear" (interpolate between the neighbouring valid samples; repeat the
 	// nearest one at the ends). Filled gaps are counted in Series.GapsFilled.
 	Gaps string
+	// TimeUnit and Unit override the units the source states (Series.TimeUnit, Series.Unit):
+	// "" keeps them. A time unit word is written canonically ("seconds" → "s").
+	TimeUnit, Unit string
 }

@@ -261,6 +261,15 @@ func read(r io.Reader, name string, opt ReadOptions) (*Series, readInfo, error) 
 	if err != nil {
 		return nil, info, err
 	}
+	if u := strings.TrimSpace(opt.TimeUnit); u != "" {
+		s.TimeUnit = u
+		if c := TimeUnitOf(u); c != "" {
+			s.TimeUnit = c // "seconds" → "s": Prep converts times with a unit suffix
+		}
+	}
+	if u := strings.TrimSpace(opt.Unit); u != "" {
+		s.Unit = u
+	}
 	s.Notes = info.notes
 	return s, info, nil
 }

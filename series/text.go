@@ -384,11 +384,49 @@ func resolveColumn(spec string, names []string, ncol int) int {
 			return j
 		}
 	}
+	for j, n := range names { // "strain" names the column "strain [µε]"
+		if bare, u := SplitUnit(n); u != "" && strings.EqualFold(bare, strings.TrimSpace(spec)) {
+			return j
+		}
+	}
 	if k, err := strconv.Atoi(strings.TrimSpace(spec)); err == nil && k >= 1 && k <= ncol {
 		return k - 1
 	}
 	return -1
 }
+
+// SplitUnit splits a column header that states its unit in brackets or parentheses at its
+// end — "strain [µε]", "U[mV]", "time (s)" — into the name and the unit. Parentheses count
+// only after a space ("x(t)" is a name). A header without such a suffix (or with nothing
+// before or inside it) is returned whole with an empty unit.
+func SplitUnit(header string) (name, unit string) {
+	h := strings.TrimSpace(header)
+	open := byte(0)
+	switch {
+	case strings.HasSuffix(h, "]"):
+		open = '['
+	case strings.HasSuffix(h, ")"):
+		open = '('
+	default:
+		return header, ""
+	}
+	i := strings.LastIndexByte(h, open)
+	if i <= 0 {
+		return header, ""
+	}
+	if open == '(' && h[i-1] != ' ' && h[i-1] != '\t' {
+		return header, "" // "x(t)", "f(x)": a name, not a unit
+	}
+	name, unit = strings.TrimSpace(h[:i]), strings.TrimSpace(h[i+1:len(h)-1])
+	if name == "" || unit == "" || strings.ContainsAny(unit, "[]()") {
+		return header, ""
+	}
+	return name, unit
+}
+
+// TimeUnitOf returns the canonical spelling of a time unit word ("s", "ms", "min", "h", "d",
+// "y" for "seconds", "msec", "minutes", …) and "" for a word that is not one.
+func TimeUnitOf(word string) string { return timeUnitOf(strings.ToLower(strings.TrimSpace(word))) }
 
 // timeCheck verifies, line by line, that time stamps advance by a constant step within the
 // precision they are written with.
@@ -579,6 +617,9 @@ func readText(r io.Reader, path string, opt ReadOptions) (*Series, []string, err
 			}
 		}
 	}
+	if tcol >= 0 && timeUnit == "" && names != nil {
+		_, timeUnit = SplitUnit(names[tcol]) // "time [ks]": a unit the reader does not convert
+	}
 	isoTime := tcol >= 0 && kinds[tcol] == cellStamp
 	if isoTime {
 		timeUnit = "s"
@@ -740,6 +781,9 @@ func readText(r io.Reader, path string, opt ReadOptions) (*Series, []string, err
 		return nil, nil, &InputError{Path: path, Msg: fmt.Sprintf("empty series: every value of column %q is a gap", colName(vcol))}
 	}
 	s := &Series{Values: vals, Dt: 1, Name: colName(vcol), GapsFilled: g.filled, TimeUnit: timeUnit}
+	if names != nil {
+		s.Name, s.Unit = SplitUnit(s.Name)
+	}
 	if names == nil && ncol == 1 {
 		s.Name = "x"
 	}

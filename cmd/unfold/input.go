@@ -3,6 +3,7 @@ package main
 import (
 	"github.com/spf13/cobra"
 
+	"unfold/analysis"
 	"unfold/series"
 )
 
@@ -19,6 +20,8 @@ func addInputFlags(cmd *cobra.Command, o *inputOptions) {
 	f.StringVar(&o.read.TimeColumn, "time-column", "", "time column: a header name or a 1-based index (default: a column named t, time, seconds, year, …)")
 	f.Float64Var(&o.read.Dt, "dt", 0, "sampling interval in time units (default: from the time column or the WAV rate, else 1)")
 	f.StringVar(&o.read.Format, "format", "", "input format: csv, npy, f32le, f64le or wav (default: detected from the name and content)")
+	f.StringVar(&o.read.TimeUnit, "time-unit", "", "unit of time: s, ms, min, h, d, y or any word (default: from the time column's header, as in \"time (s)\"; seconds for WAV)")
+	f.StringVar(&o.read.Unit, "unit", "", "unit of the signal's values (default: from the column's header, as in \"strain [µε]\")")
 	f.IntVar(&o.read.Channel, "channel", 1, "WAV channel (1-based)")
 	f.StringVar(&o.read.Gaps, "gaps", "", "what to do with NaN, Inf or empty cells: drop or linear (default: refuse them)")
 	f.StringVar(&o.prep.From, "from", "", "first sample to use: an index (1000) or a time with a unit (2.5s, 10min, 3h, 2d, 1.5y, or 12t in the record's own unit)")
@@ -39,5 +42,10 @@ func (a *app) loadInput(path string, o *inputOptions) (*series.Series, *inputInf
 	if err != nil {
 		return nil, nil, err
 	}
-	return s, &inputInfo{Path: src.Path, SHA256: src.SHA256, Samples: s.Len(), Dt: s.Dt}, nil
+	return s, &inputInfo{Path: src.Path, SHA256: src.SHA256, Samples: s.Len(), Dt: s.Dt, Units: unitsOf(s)}, nil
+}
+
+// unitsOf is the "units" object of the JSON output of s.
+func unitsOf(s *series.Series) analysis.Units {
+	return analysis.Units{Time: s.TimeUnit, Signal: s.Unit}
 }

@@ -26,7 +26,7 @@ func figureOf(path string, s *series.Series) figure.Record {
 	if path == "-" {
 		title = "standard input"
 	}
-	return figure.Record{Title: title, Signal: s.Name, Unit: s.Unit, Dt: s.Dt, TimeUnit: "time units"}
+	return figure.Record{Title: title, Signal: s.Name, Unit: s.Unit, Dt: s.Dt, TimeUnit: s.TimeUnit}
 }
 
 // checkFigurePath accepts "" or a name ending in .png or .svg.

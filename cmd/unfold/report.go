@@ -74,7 +74,9 @@ the lag chosen above: the return map with the partition's cut(s); the stream and
 kept in memory, not written, so "output" and "sidecar" are empty) and entropy (the defaults of
 'unfold entropy' on that stream: the block-entropy and entropy-rate curves). A stage that gives no
 answer is recorded with its reason and the others still run. One line per stage goes to stderr
-with its wall time (and a bar for long stages when stderr is a terminal).
+with its wall time (and a bar for long stages when stderr is a terminal); stdout gets the
+summary that opens the page: the verdict, λ1 and D2 with units, the embedding, the cautions
+that matter most and the figure to read first.
 
 --demo analyses the demo signal built into the binary (testdata/demo/strip.csv: a synthetic
 strain record, see testdata/demo/README.md).`,
@@ -157,11 +159,9 @@ func (a *app) runReport(cmd *cobra.Command, path string, args []string, o *repor
 			return err
 		}
 	} else {
-		rows := [][]string{{"stage", "wall time (s)", "status"}}
-		for _, st := range res.Provenance.Stages {
-			rows = append(rows, []string{st.Key, fmt.Sprintf("%.2f", st.Seconds), st.Status})
-		}
-		if err := a.table(rows); err != nil {
+		// the stage times went to stderr as the stages ran (and are in the page's provenance):
+		// stdout has the summary, as at the top of the page
+		if err := a.printSummary(res.Summary); err != nil {
 			return err
 		}
 		fmt.Fprintf(a.stdout, "page: %s\n", filepath.Join(o.output, "report.html"))
@@ -176,4 +176,16 @@ func (a *app) runReport(cmd *cobra.Command, path string, args []string, o *repor
 		return noAnswer(errors.New("report: some stages gave no answer (the report is written): " + strings.Join(why, "; ")))
 	}
 	return nil
+}
+
+// printSummary writes the summary block of the page as a table on stdout.
+func (a *app) printSummary(sm *report.Summary) error {
+	if sm == nil {
+		return nil
+	}
+	var rows [][]string
+	for _, r := range sm.Rows() {
+		rows = append(rows, []string{r[0], r[1]})
+	}
+	return a.table(rows)
 }

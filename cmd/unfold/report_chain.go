@@ -66,7 +66,14 @@ func (a *app) loadReportInput(path string, o *reportOptions) (*series.Series, *i
 		return s, in, title, nil
 	}
 	b := demo.Strip()
-	s, err := series.Read(bytes.NewReader(b), demo.Name, o.in.read)
+	rd := o.in.read
+	if rd.TimeUnit == "" {
+		rd.TimeUnit = demo.TimeUnit
+	}
+	if rd.Unit == "" {
+		rd.Unit = demo.Unit
+	}
+	s, err := series.Read(bytes.NewReader(b), demo.Name, rd)
 	if err != nil {
 		return nil, nil, "", err
 	}
@@ -74,7 +81,7 @@ func (a *app) loadReportInput(path string, o *reportOptions) (*series.Series, *i
 		return nil, nil, "", err
 	}
 	h := sha256.Sum256(b)
-	return s, &inputInfo{Path: demo.Path, SHA256: hex.EncodeToString(h[:]), Samples: s.Len(), Dt: s.Dt},
+	return s, &inputInfo{Path: demo.Path, SHA256: hex.EncodeToString(h[:]), Samples: s.Len(), Dt: s.Dt, Units: unitsOf(s)},
 		demo.Name + " (built-in demo signal, synthetic)", nil
 }
 
@@ -85,7 +92,7 @@ func (a *app) runChain(cmd *cobra.Command, args []string, path, title string, s 
 		MaxLag: o.maxLag, MI: o.mi, Norm: o.norm, Azimuth: o.azimuth, Elevation: o.elevation, PNG: o.png, Threads: a.threads()}
 	h := report.Header{Version: versionString(), Commit: commitID(), CommandLine: cmdLine(cmd, args),
 		Seeds: map[string]uint64{"seed": a.global.Seed}, Parameters: p, Title: title,
-		Input: report.Input{Path: in.Path, SHA256: in.SHA256, Samples: in.Samples, Dt: in.Dt}}
+		Input: report.Input{Path: in.Path, SHA256: in.SHA256, Samples: in.Samples, Dt: in.Dt, Units: in.Units}}
 	if path == "" {
 		path = in.Path
 	}

@@ -81,10 +81,11 @@ var (
 // change, and review the diff.
 func TestReportDemoGolden(t *testing.T) {
 	dir := filepath.Join(t.TempDir(), "out")
-	_, stderr, code := runCLI(t, "", "report", "--demo", "--threads", "2", "-o", dir)
+	stdout, stderr, code := runCLI(t, "", "report", "--demo", "--threads", "2", "-o", dir)
 	if code != 0 {
 		t.Fatalf("exit %d: %s", code, stderr)
 	}
+	checkDemoSummary(t, dir, stdout)
 	for _, st := range reportDemoStages {
 		if !strings.Contains(stderr, "  "+st+" ") {
 			t.Errorf("no progress line for stage %s in:\n%s", st, stderr)
