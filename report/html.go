@@ -33,6 +33,7 @@ table.times th { width: auto; }
 code { font-family: ui-monospace, "DejaVu Sans Mono", monospace; font-size: .88em; overflow-wrap: anywhere; }
 .cautions { background: #fff6e5; border-left: 4px solid #d96b0b; padding: .4rem .8rem .4rem 1.6rem; margin: .6rem 0; }
 .cautions li { margin: .15rem 0; }
+.skipped { background: #f2f2f2; border-left: 4px solid #777; padding: .5rem .8rem; margin: .6rem 0; }
 .failed { background: #fdecee; border-left: 4px solid #b2182b; padding: .5rem .8rem; margin: .6rem 0; }
 figure { margin: .8rem 0 1.2rem; break-inside: avoid; page-break-inside: avoid; }
 figure svg { display: block; width: 100%; height: auto; }
@@ -57,7 +58,7 @@ footer { margin-top: 2.5rem; color: #666; font-size: .8rem; border-top: 1px soli
 {{range .Sections}}
 <section id="{{.Key}}">
 <h2>{{.Title}}</h2>
-{{if .Error}}<p class="failed">No answer from this stage: {{.Error}}</p>{{end}}
+{{if .Error}}<p class="failed">No answer from this stage: {{.Error}}</p>{{end}}{{if .Skipped}}<p class="skipped">skipped: {{.Skipped}}</p>{{end}}
 {{if .Rows}}<table>{{range .Rows}}<tr><th>{{index . 0}}</th><td>{{index . 1}}</td></tr>{{end}}</table>{{end}}
 {{if .Cautions}}<ul class="cautions">{{range .Cautions}}<li>{{.}}</li>{{end}}</ul>{{end}}
 {{range .Figures}}<figure id="fig-{{.Name}}">{{.SVG}}<figcaption>{{.Caption}} <code>figures/{{.Name}}.svg</code></figcaption></figure>
@@ -87,6 +88,7 @@ footer { margin-top: 2.5rem; color: #666; font-size: .8rem; border-top: 1px soli
 
 type pageSection struct {
 	Key, Title, Error string
+	Skipped           string
 	Rows              [][2]string
 	Cautions          []string
 	Figures           []pageFigure
@@ -146,7 +148,7 @@ func (r *Result) writeHTML(w io.Writer, svgs map[string][]byte) error {
 		d.Title = r.Header.Input.Path
 	}
 	for _, k := range r.Keys {
-		ps := pageSection{Key: k, Title: r.Titles[k], Error: r.Errors[k]}
+		ps := pageSection{Key: k, Title: r.Titles[k], Error: r.Errors[k], Skipped: r.Skipped[k]}
 		if s, ok := r.Sections[k]; ok {
 			ps.Rows, ps.Cautions = s.Summary, s.Cautions
 			for _, f := range s.Figures {

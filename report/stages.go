@@ -41,6 +41,9 @@ func stageErr(res *analysis.Result, key string) error {
 	if r == nil {
 		return errors.New(key + ": did not run")
 	}
+	if r.Status == analysis.StatusSkipped {
+		return analysis.Skip(errors.New(r.Error))
+	}
 	if r.Status != analysis.StatusOK {
 		return errors.New(r.Error)
 	}
@@ -175,6 +178,7 @@ func Stages(res *analysis.Result, s *series.Series, fig figure.Record, view View
 		regimeStage(res, fig.Title),
 		symbolsStage(res, fig.Title),
 		entropyStage(res),
+		statesStage(res),
 	}
 	for i := range stages {
 		stages[i].Took = stageTime(res, stages[i].Key)
