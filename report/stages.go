@@ -233,7 +233,7 @@ func lyapunovStage(res *analysis.Result, title string) Stage {
 		if b.LambdaMax != nil {
 			sum = append(sum,
 				[2]string{"λ_max", fmt.Sprintf("%s nats per time unit (%s bits; %s nats per sample)", g(r.Lambda), g(r.Lambda/ln2), g(r.LambdaPerSample))},
-				[2]string{"interval", fmt.Sprintf("[%s, %s] nats per time unit (%.0f %%, block bootstrap, %d resamples)", g(r.Interval[0]), g(r.Interval[1]), 100*r.Level, r.Reps)},
+				[2]string{"interval", lyapunovIntervalText(b, r.Level, r.Reps)},
 				[2]string{"fit range", fmt.Sprintf("steps %d … %d (%s)", r.From, r.To, b.Fit.Criterion)})
 		} else {
 			sum = append(sum, [2]string{"λ_max", "no answer: " + b.Reason})
@@ -242,6 +242,19 @@ func lyapunovStage(res *analysis.Result, title string) Stage {
 			Caption: "Mean log separation of initially close delay vectors against the steps ahead; the fit range is shaded and λ_max is the slope there.",
 			Width:   8 * vg.Inch, Height: 5.5 * vg.Inch, Rows: [][]*plot.Plot{{pl}}}}}, noFit
 	}}
+}
+
+// lyapunovIntervalText is the page's λ1 interval: the stage's (the one the regime evidence
+// uses), said to be the spread across ε when an unsure fit range widened it.
+func lyapunovIntervalText(b analysis.LyapunovResult, level float64, reps int) string {
+	g := func(v float64) string { return strconv.FormatFloat(v, 'g', 4, 64) }
+	iv := *b.Interval
+	t := fmt.Sprintf("[%s, %s] nats per time unit (%.0f %%, block bootstrap, %d resamples)", g(iv[0]), g(iv[1]), 100*level, reps)
+	if rc := b.RangeCheck; rc != nil && rc.Widened {
+		t = fmt.Sprintf("[%s, %s] nats per time unit: the fit range is unsure, so the interval is the spread across ε (block bootstrap alone: [%s, %s])",
+			g(iv[0]), g(iv[1]), g(rc.Bootstrap[0]), g(rc.Bootstrap[1]))
+	}
+	return t
 }
 
 // fractalStage renders the chain's "fractal" stage: the local slopes of the correlation sums
