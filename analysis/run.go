@@ -371,6 +371,11 @@ func Run(ctx context.Context, s *series.Series, opt Options) (*Result, error) {
 			if c == nil {
 				return NoAnswer(fmt.Errorf("fractal: %s: no embedding (%v)", path, chooseErr))
 			}
+			// dimension.CorrelationDimension needs N ≥ 2·W + 100 (W the Theiler window)
+			if need := 2*c.Theiler.Value + 100; s.Len() < need {
+				return Skip(fmt.Errorf("fractal: %s: %d samples are too few for the correlation dimension with a Theiler window of %d: a record of at least %d samples",
+					path, s.Len(), c.Theiler.Value, need))
+			}
 			run, p, b, err := e.Fractal(path, s, DefaultFractalOptions(), c, nil)
 			res.FractalCurves = run
 			if err != nil {
@@ -426,7 +431,7 @@ func Run(ctx context.Context, s *series.Series, opt Options) (*Result, error) {
 		{"entropy", func() error {
 			if res.Symbols == nil {
 				if r := res.Stage("symbols"); r != nil && r.Status == StatusSkipped {
-					return Skip(errors.New("entropy: no symbol stream (the symbols stage was skipped: " + r.Error + ")"))
+					return Skip(errors.New("entropy: no symbol stream (the symbols stage was skipped)"))
 				}
 				return NoAnswer(errors.New("entropy: no symbol stream (the symbols stage gave no answer)"))
 			}

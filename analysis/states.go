@@ -152,7 +152,7 @@ func (e *Env) statesStage(res *Result, version string) error {
 	if res.Symbols == nil {
 		why := "the symbols stage gave no answer"
 		if r := res.Stage("symbols"); r != nil && r.Status == StatusSkipped {
-			why = "the symbols stage was skipped: " + r.Error
+			why = "the symbols stage was skipped"
 		}
 		return Skip(fmt.Errorf("states: no symbol stream (%s)", why))
 	}
