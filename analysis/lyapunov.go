@@ -102,6 +102,7 @@ type LyapunovResult struct {
 	Divergence         []DivergencePoint `json:"divergence"`
 	References         int               `json:"reference_points"`
 	Reason             string            `json:"reason,omitempty"`
+	RangeCheck         *RangeCheckJSON   `json:"range_check,omitempty"`
 	Spectrum           []float64         `json:"spectrum,omitempty"`
 	SpectrumPerSample  []float64         `json:"spectrum_per_sample,omitempty"`
 	KaplanYorke        *float64          `json:"kaplan_yorke_dimension,omitempty"`
@@ -207,6 +208,7 @@ func (e *Env) Lyapunov(path string, s *series.Series, o LyapunovOptions, c *embe
 	if derr == nil {
 		res.LambdaMax, res.LambdaMaxPerSample = &r.Lambda, &r.LambdaPerSample
 		res.Interval, res.IntervalPerSample = &r.Interval, &r.IntervalPerSample
+		checkRange(r, &res, s.Dt)
 		crit := "given"
 		if r.AutoRange {
 			ro := r.RangeOptions

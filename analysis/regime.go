@@ -14,7 +14,8 @@ type RegimeOptions struct {
 	// Lag and Dim as for the dim stage (0: chosen); Theiler: embed.TheilerAuto chooses, 0 is
 	// no window.
 	Lag, Dim, Theiler int
-	// Surrogates is the number of IAAFT surrogates.
+	// Surrogates is the number of IAAFT surrogates (default regime.DefaultSurrogates: what the
+	// stated level needs, regime.SurrogatesFor(0.05, regime.TwoSided)).
 	Surrogates int
 	// NoLyapunov leaves λ1 out of the evidence.
 	NoLyapunov bool
@@ -22,7 +23,7 @@ type RegimeOptions struct {
 
 // DefaultRegimeOptions returns the defaults of `unfold regime`.
 func DefaultRegimeOptions() RegimeOptions {
-	return RegimeOptions{Theiler: embed.TheilerAuto, Surrogates: 19}
+	return RegimeOptions{Theiler: embed.TheilerAuto, Surrogates: regime.DefaultSurrogates}
 }
 
 // RegimeParams are the "parameters" of the regime stage.
@@ -49,7 +50,12 @@ type RegimeResult struct {
 	Rule       string                 `json:"rule"`
 	Evidence   map[string]regime.Item `json:"evidence"`
 	Tests      []*regime.RankTest     `json:"surrogate_tests"`
-	Cautions   []string               `json:"cautions"`
+	// Unused names the evidence the verdict did not use, each with the reason (tests the
+	// record is too short for among them).
+	Unused []string `json:"unused"`
+	// DominantPeriod is the period of the strongest cycle in time units (null when none).
+	DominantPeriod *float64 `json:"dominant_period"`
+	Cautions       []string `json:"cautions"`
 }
 
 // CheckRegime validates o.
@@ -110,6 +116,12 @@ func (e *Env) Regime(path string, s *series.Series, o RegimeOptions, ev RegimeEv
 		p.DimensionFrom = "fractal stage"
 	}
 	res := RegimeResult{Regime: v.Regime, Confidence: v.Confidence, Rule: v.Rule,
-		Evidence: v.Evidence, Tests: []*regime.RankTest{evd.Prediction, evd.Reversal}, Cautions: v.Cautions}
+		Evidence: v.Evidence, Tests: []*regime.RankTest{evd.Prediction, evd.Reversal}, Unused: v.Unused, Cautions: v.Cautions}
+	if v.DominantPeriod > 0 {
+		res.DominantPeriod = finite(v.DominantPeriod)
+	}
+	if res.Unused == nil {
+		res.Unused = []string{}
+	}
 	return an, p, res, nil
 }

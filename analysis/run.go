@@ -128,9 +128,15 @@ type EntropyStage struct {
 	Output[EntropyParams, EntropyResult]
 }
 
+// StatesStage is the states stage: its JSON object and the causal-state machine.
+type StatesStage struct {
+	Output[StatesParams, StatesResult]
+	Run *StatesRun `json:"-"`
+}
+
 // Result is the outcome of Run: one field per stage (nil when the stage gave no JSON object),
 // the embedding chosen once, and how each stage went. json.Marshal gives each stage's object
-// under its key (inspect, lag, dim, embed, lyapunov, fractal, regime, symbols, entropy),
+// under its key (inspect, lag, dim, embed, lyapunov, fractal, regime, symbols, entropy, states),
 // exactly as the single command prints it with --json, and "stages".
 type Result struct {
 	Inspect  *InspectStage  `json:"inspect,omitempty"`
@@ -142,6 +148,7 @@ type Result struct {
 	Regime   *RegimeStage   `json:"regime,omitempty"`
 	Symbols  *SymbolsStage  `json:"symbols,omitempty"`
 	Entropy  *EntropyStage  `json:"entropy,omitempty"`
+	States   *StatesStage   `json:"states,omitempty"`
 	// Embedding is the one embedding choice handed to every estimator (nil when the lag
 	// could not be chosen).
 	Embedding *embed.Choice `json:"-"`
@@ -153,7 +160,7 @@ type Result struct {
 }
 
 // Keys are the stage keys in the order Run runs them.
-var Keys = []string{"inspect", "lag", "dim", "embed", "lyapunov", "fractal", "regime", "symbols", "entropy"}
+var Keys = []string{"inspect", "lag", "dim", "embed", "lyapunov", "fractal", "regime", "symbols", "entropy", "states"}
 
 // Stage returns the record of the stage key (nil when it did not run).
 func (r *Result) Stage(key string) *StageRecord {
@@ -165,11 +172,12 @@ func (r *Result) Stage(key string) *StageRecord {
 	return nil
 }
 
-// Err is nil when every stage gave an answer, else an error listing why each did not.
+// Err is nil when every stage gave an answer or was skipped (did not apply), else an error
+// listing why each did not.
 func (r *Result) Err() error {
 	var errs []error
 	for _, st := range r.Stages {
-		if st.Status != StatusOK {
+		if st.Status != StatusOK && st.Status != StatusSkipped {
 			errs = append(errs, errors.New(st.Error))
 		}
 	}
@@ -181,7 +189,7 @@ func (r *Result) Err() error {
 const EntropyStreamName = "symbols stage stream (in memory)"
 
 // Run runs the analysis chain on s — inspect, lag, dim, embed, lyapunov, fractal, regime,
-// symbols, entropy — each with the defaults of its single command. The lag, the dimension and
+// symbols, entropy, states — each with the defaults of its single command. The lag, the dimension and
 // the Theiler window are chosen once (embed.Choose) and handed to every estimator; regime
 // takes λ1 from the lyapunov stage and D2 from the fractal stage. A stage that gives no answer
 // is recorded with its reason and the chain goes on where it can. ctx is checked between
@@ -363,6 +371,11 @@ func Run(ctx context.Context, s *series.Series, opt Options) (*Result, error) {
 			if c == nil {
 				return NoAnswer(fmt.Errorf("fractal: %s: no embedding (%v)", path, chooseErr))
 			}
+			// dimension.CorrelationDimension needs N ≥ 2·W + 100 (W the Theiler window)
+			if need := 2*c.Theiler.Value + 100; s.Len() < need {
+				return Skip(fmt.Errorf("fractal: %s: %d samples are too few for the correlation dimension with a Theiler window of %d: a record of at least %d samples",
+					path, s.Len(), c.Theiler.Value, need))
+			}
 			run, p, b, err := e.Fractal(path, s, DefaultFractalOptions(), c, nil)
 			res.FractalCurves = run
 			if err != nil {
@@ -395,7 +408,7 @@ func Run(ctx context.Context, s *series.Series, opt Options) (*Result, error) {
 		}},
 		{"symbols", func() error {
 			so := DefaultSymbolsOptions()
-			so.Lag = lag
+			so.Lag, so.Densest = lag, true
 			if err := CheckSymbols(so, false); err != nil {
 				return err
 			}
@@ -417,6 +430,9 @@ func Run(ctx context.Context, s *series.Series, opt Options) (*Result, error) {
 		}},
 		{"entropy", func() error {
 			if res.Symbols == nil {
+				if r := res.Stage("symbols"); r != nil && r.Status == StatusSkipped {
+					return Skip(errors.New("entropy: no symbol stream (the symbols stage was skipped)"))
+				}
 				return NoAnswer(errors.New("entropy: no symbol stream (the symbols stage gave no answer)"))
 			}
 			ein, p, b, err := e.Entropy(EntropyStreamName, bytes.NewReader(res.Symbols.Stream), res.Symbols.Sidecar, DefaultEntropyOptions())
@@ -429,6 +445,7 @@ func Run(ctx context.Context, s *series.Series, opt Options) (*Result, error) {
 			res.Entropy = st
 			return nil
 		}},
+		{"states", func() error { return e.statesStage(res, opt.Version) }},
 	}
 	for _, stg := range stages {
 		if err := ctx.Err(); err != nil {
@@ -438,7 +455,10 @@ func Run(ctx context.Context, s *series.Series, opt Options) (*Result, error) {
 		err := stg.run()
 		took := time.Since(t0)
 		rec := StageRecord{Key: stg.key, Status: StatusOK, Seconds: took.Seconds()}
-		if err != nil {
+		switch {
+		case IsSkip(err):
+			rec.Status, rec.Error = StatusSkipped, err.Error()
+		case err != nil:
 			rec.Status, rec.Error = StatusError, err.Error()
 		}
 		res.Stages = append(res.Stages, rec)

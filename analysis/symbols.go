@@ -27,6 +27,9 @@ type SymbolsOptions struct {
 	// Maxima, Level, Direction and Interp shape the section of a flow (see SectionOptions).
 	Maxima                   bool
 	Level, Direction, Interp string
+	// Densest, for a flow without Maxima, takes both the section and the local maxima and
+	// partitions whichever gives more values (the chain sets it: the densest valid source).
+	Densest bool
 }
 
 // DefaultSymbolsOptions returns the defaults of `unfold symbols`.
@@ -157,6 +160,14 @@ func (e *Env) Symbols(path string, s *series.Series, o SymbolsOptions, lagFrom s
 		}
 		run.Cautions = append(run.Cautions, cs...)
 		sec, err := partition.TakeSection(s.Values, s.Dt, s.T0, opt)
+		if o.Densest && !opt.Maxima && (err != nil || sec.Len() < SearchValues*o.Alphabet) {
+			if mx, why := denserMaxima(s, opt, sec, max(lag, 1)); mx != nil {
+				sec, err = mx, nil
+				run.Cautions = append(run.Cautions, why)
+			} else if why != "" {
+				run.Notes = append(run.Notes, why)
+			}
+		}
 		if err != nil {
 			return run, SymbolsParams{}, NoAnswer(fmt.Errorf("symbols: %s: %w", path, err))
 		}
@@ -168,6 +179,9 @@ func (e *Env) Symbols(path string, s *series.Series, o SymbolsOptions, lagFrom s
 			secP.Lag, secP.LagMethod, secP.Dim = sec.Lag, lm, sec.Dim
 		}
 		run.Notes = append(run.Notes, fmt.Sprintf("section: %d crossings (%s)", sec.Len(), sec.Method))
+	}
+	if need := SearchValues * o.Alphabet; o.Kind == "search" && len(values) < need {
+		return run, SymbolsParams{}, Skip(fmt.Errorf("symbols: %s: %s", path, tooFewValues(len(values), need, o.Alphabet, s.Len(), applied)))
 	}
 	sopt := partition.SearchOptions{Alphabet: o.Alphabet, Threads: e.threads()}
 	var p *partition.Partition
@@ -254,4 +268,45 @@ func (run *SymbolsRun) Result(sc *symbolic.Sidecar, output, sidecar string) Symb
 			EntropyRate: finite(p.EntropyRate), AppliedTo: run.Applied, Rule: run.Rule},
 		AlphabetSize: p.K(), Alphabet: run.Alphabet, Count: sc.Count, Counts: sc.Counts,
 		Output: output, Sidecar: sidecar, Cautions: run.Cautions}
+}
+
+// SearchValues is the number of values per symbol the partition search needs (partition.Search
+// refuses fewer than SearchValues·K).
+const SearchValues = 50
+
+// tooFewValues says why a record of n samples whose source (the signal or the section of a
+// flow) gives have values is too short for k symbols, and how long a record would do.
+func tooFewValues(have, need, k, n int, applied string) string {
+	src := "the record gives"
+	if applied == "section" {
+		src = "the section (or the local maxima, whichever is denser) gives"
+	}
+	msg := fmt.Sprintf("%s %d values, too few for %d symbols (need %d)", src, have, k, need)
+	if have > 0 {
+		msg += fmt.Sprintf(": a record of at least %d samples", int(math.Ceil(float64(n)*float64(need)/float64(have))))
+	} else {
+		msg += ": a longer record"
+	}
+	return msg
+}
+
+// denserMaxima returns the local maxima of a flow as the values to partition when they are
+// more than the section's crossings (sec, nil when the section failed) and not dominated by
+// noise: at most one maximum per lag samples (the lag is about a quarter of a cycle, so that
+// allows four maxima per cycle; noise makes a maximum every few samples: common practice). It
+// says why, or why not.
+func denserMaxima(s *series.Series, opt partition.SectionOptions, sec *partition.Section, lag int) (*partition.Section, string) {
+	have := 0
+	if sec != nil {
+		have = sec.Len()
+	}
+	opt.Maxima = true
+	mx, err := partition.TakeSection(s.Values, s.Dt, s.T0, opt)
+	switch {
+	case err != nil || mx.Len() <= have:
+		return nil, ""
+	case mx.Len() > s.Len()/lag:
+		return nil, fmt.Sprintf("the local maxima (%d) are not used: more than one per lag (%d samples) means noise makes them", mx.Len(), lag)
+	}
+	return mx, fmt.Sprintf("symbols from the %d local maxima: the section gives only %d crossings", mx.Len(), have)
 }

@@ -19,6 +19,7 @@ import (
 	"sync"
 	"time"
 
+	"unfold/analysis"
 	"unfold/series"
 )
 
@@ -639,6 +640,10 @@ type resultHead struct {
 		Regime     *string  `json:"regime"`
 		Confidence *float64 `json:"confidence"`
 	} `json:"regime"`
+	States *struct {
+		EntropyRate           *float64 `json:"entropy_rate"`
+		StatisticalComplexity *float64 `json:"statistical_complexity"`
+	} `json:"states"`
 }
 
 func readResultHead(path string) (*resultHead, error) {
@@ -658,12 +663,14 @@ func readResultHead(path string) (*resultHead, error) {
 
 // SummaryHeader returns the header of summary.csv.
 func SummaryHeader() []string {
-	return []string{"file", "samples", "dt", "lag", "dimension", "lambda_max", "d2", "regime", "confidence", "status", "error"}
+	return []string{"file", "samples", "dt", "lag", "dimension", "lambda_max", "d2", "regime", "confidence", "status", "error",
+		"entropy_rate", "statistical_complexity"}
 }
 
 // Row is one line of summary.csv: the fields of SummaryHeader as text (empty when the stage
-// did not run or gave no answer).
-type Row [11]string
+// did not run or gave no answer). The causal states' entropy rate and statistical complexity
+// come last, after the error, so the earlier columns keep their places.
+type Row [13]string
 
 // StatusMissing is the status of a summary row for an input a batch took on whose result
 // folder is missing (the run was killed or is still going).
@@ -751,10 +758,13 @@ func (h *resultHead) row() Row {
 		}
 		r[8] = g(h.Regime.Confidence)
 	}
+	if h.States != nil {
+		r[11], r[12] = g(h.States.EntropyRate), g(h.States.StatisticalComplexity)
+	}
 	if r[10] == "" && h.Provenance != nil {
 		var msgs []string
 		for _, s := range h.Provenance.Stages {
-			if s.Status != StatusOK {
+			if s.Status != StatusOK && s.Status != analysis.StatusSkipped {
 				msgs = append(msgs, s.Key+": "+s.Error)
 			}
 		}

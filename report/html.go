@@ -47,6 +47,7 @@ code { font-family: ui-monospace, "DejaVu Sans Mono", monospace; font-size: .88e
 .judgement { font-size: .85rem; color: #444; margin: .3rem 0 .2rem; }
 .cautions { background: #fff6e5; border-left: 4px solid #d96b0b; padding: .4rem .8rem .4rem 1.6rem; margin: .6rem 0; }
 .cautions li { margin: .15rem 0; }
+.skipped { background: #f2f2f2; border-left: 4px solid #777; padding: .5rem .8rem; margin: .6rem 0; }
 .failed { background: #fdecee; border-left: 4px solid #b2182b; padding: .5rem .8rem; margin: .6rem 0; }
 figure { margin: .8rem 0 1.2rem; break-inside: avoid; page-break-inside: avoid; max-width: 100%; }
 figure svg { display: block; width: 100%; max-width: 100%; height: auto; }
@@ -102,7 +103,7 @@ footer { margin-top: 2.5rem; color: #666; font-size: .8rem; border-top: 1px soli
 {{range .Sections}}
 <section id="{{.Key}}">
 <h2>{{.Title}}</h2>
-{{if .Error}}<p class="failed">No answer from this stage: {{.Error}}</p>{{end}}
+{{if .Error}}<p class="failed">No answer from this stage: {{.Error}}</p>{{end}}{{if .Skipped}}<p class="skipped">skipped: {{.Skipped}}</p>{{end}}
 {{if .Rows}}<table>{{range .Rows}}<tr><th>{{if .Term}}<a class="term" href="#g-{{.Term}}">{{.Label}}</a>{{else}}{{.Label}}{{end}}</th><td>{{.Value}}</td></tr>{{end}}</table>{{end}}
 {{if .Evidence}}<h3>Evidence</h3>
 <table class="evidence"><tr><th>test</th><th>what it found</th><th>role in the verdict</th></tr>
@@ -141,6 +142,7 @@ footer { margin-top: 2.5rem; color: #666; font-size: .8rem; border-top: 1px soli
 
 type pageSection struct {
 	Key, Title, Error string
+	Skipped           string
 	Rows              []pageRow
 	Cautions          []string
 	Evidence          []EvidenceLine
@@ -206,7 +208,7 @@ func (r *Result) writeHTML(w io.Writer, svgs map[string][]byte) error {
 		d.Title = r.Header.Input.Path
 	}
 	for _, k := range r.Keys {
-		ps := pageSection{Key: k, Title: r.Titles[k], Error: r.Errors[k]}
+		ps := pageSection{Key: k, Title: r.Titles[k], Error: r.Errors[k], Skipped: r.Skipped[k]}
 		if s, ok := r.Sections[k]; ok {
 			ps.Cautions, ps.Evidence = s.Cautions, s.Evidence
 			for _, row := range s.Summary {

@@ -81,7 +81,7 @@ type Input struct {
 type StageRecord struct {
 	Key     string  `json:"key"`
 	Seconds float64 `json:"seconds"`
-	Status  string  `json:"status"` // "ok" or "error"
+	Status  string  `json:"status"` // "ok", "skipped" (the stage does not apply) or "error"
 	Error   string  `json:"error,omitempty"`
 }
 
@@ -125,9 +125,11 @@ type Result struct {
 	Errors     map[string]string   // stage key → why it gave no answer
 	// Summary is the block at the top of the page (Build sets it; nil: the page has none).
 	Summary *Summary
+	Skipped    map[string]string   // stage key → why it does not apply (not an error)
 }
 
-// Status is StatusOK when every stage gave an answer, else StatusPartial.
+// Status is StatusOK when every stage gave an answer or was skipped (did not apply, with its
+// reason), else StatusPartial.
 func (r *Result) Status() string {
 	if len(r.Errors) > 0 {
 		return StatusPartial
@@ -139,7 +141,7 @@ func (r *Result) Status() string {
 // with its key, wall time and error (nil on success) once it has run; either may be nil.
 func Run(h Header, stages []Stage, before func(key string), after func(key string, took time.Duration, err error)) *Result {
 	start := time.Now()
-	r := &Result{Header: h, Titles: map[string]string{}, Sections: map[string]*Section{}, Errors: map[string]string{}}
+	r := &Result{Header: h, Titles: map[string]string{}, Sections: map[string]*Section{}, Errors: map[string]string{}, Skipped: map[string]string{}}
 	r.Provenance = Provenance{Version: h.Version, Commit: h.Commit, CommandLine: h.CommandLine, Seeds: h.Seeds,
 		InputSHA256: h.Input.SHA256, Started: start.UTC().Format(time.RFC3339), Stages: []StageRecord{}}
 	if r.Provenance.Seeds == nil {
@@ -162,6 +164,9 @@ func Run(h Header, stages []Stage, before func(key string), after func(key strin
 		if sec != nil {
 			for i := range sec.Figures {
 				f := &sec.Figures[i]
+				if f.svg != nil {
+					continue // drawn by the stage itself (the state-transition diagram)
+				}
 				var b bytes.Buffer
 				if ferr := figure.Write(&b, "svg", f.Width, f.Height, f.Rows); ferr != nil {
 					if err == nil {
@@ -176,7 +181,11 @@ func Run(h Header, stages []Stage, before func(key string), after func(key strin
 		rec := StageRecord{Key: st.Key, Seconds: took.Seconds(), Status: StatusOK}
 		r.Keys = append(r.Keys, st.Key)
 		r.Titles[st.Key] = st.Title
-		if err != nil {
+		switch {
+		case analysis.IsSkip(err):
+			rec.Status, rec.Error = analysis.StatusSkipped, err.Error()
+			r.Skipped[st.Key] = err.Error()
+		case err != nil:
 			rec.Status, rec.Error = StatusError, err.Error()
 			r.Errors[st.Key] = err.Error()
 		}
@@ -283,7 +292,7 @@ func (r *Result) WriteDir(dir string, opt WriteOptions) ([]string, error) {
 			if err := write(filepath.Join(figDir, fg.Name+".svg"), fg.svg); err != nil {
 				return written, err
 			}
-			if opt.PNG {
+			if opt.PNG && fg.Rows != nil {
 				var p bytes.Buffer
 				if err := figure.Write(&p, "png", fg.Width, fg.Height, fg.Rows); err != nil {
 					return written, fmt.Errorf("report: figure %s: %w", fg.Name, err)

@@ -43,6 +43,9 @@ func stageErr(res *analysis.Result, key string) error {
 	if r == nil {
 		return errors.New(key + ": did not run")
 	}
+	if r.Status == analysis.StatusSkipped {
+		return analysis.Skip(errors.New(r.Error))
+	}
 	if r.Status != analysis.StatusOK {
 		return errors.New(r.Error)
 	}
@@ -173,6 +176,7 @@ func Stages(res *analysis.Result, s *series.Series, fig figure.Record, view View
 		regimeStage(res, fig),
 		symbolsStage(res, fig.Title),
 		entropyStage(res),
+		statesStage(res),
 	}
 	for i := range stages {
 		stages[i].Took = stageTime(res, stages[i].Key)
@@ -269,7 +273,7 @@ func lyapunovStage(res *analysis.Result, fig figure.Record) Stage {
 		if b.LambdaMax != nil {
 			sum = append(sum,
 				[2]string{"λ1 (largest exponent)", fmt.Sprintf("%s %s (%s bits per %s; %s nats per sample)", sig3(r.Lambda), PerTime(fig.TimeUnit), sig3(r.Lambda/ln2), timeWord(fig.TimeUnit), sig3(r.LambdaPerSample))},
-				[2]string{"interval", fmt.Sprintf("[%s, %s] %s (%.0f %%, block bootstrap, %d resamples)", sig3(r.Interval[0]), sig3(r.Interval[1]), PerTime(fig.TimeUnit), 100*r.Level, r.Reps)},
+				[2]string{"interval", lyapunovIntervalText(b, r.Level, r.Reps, PerTime(fig.TimeUnit))},
 				[2]string{"fit range", fmt.Sprintf("steps %d … %d (%s)", r.From, r.To, b.Fit.Criterion)})
 		} else {
 			sum = append(sum, [2]string{"λ1 (largest exponent)", "no answer: " + b.Reason})
@@ -278,6 +282,18 @@ func lyapunovStage(res *analysis.Result, fig figure.Record) Stage {
 			Caption: "Mean log separation of initially close delay vectors against the steps ahead; the fit range is shaded and λ_max is the slope there.",
 			Width:   figure.Width, Height: figure.Height, Rows: [][]*plot.Plot{{pl}}}}}, noFit
 	}}
+}
+
+// lyapunovIntervalText is the page's λ1 interval: the stage's (the one the regime evidence
+// uses), said to be the spread across ε when an unsure fit range widened it.
+func lyapunovIntervalText(b analysis.LyapunovResult, level float64, reps int, per string) string {
+	iv := *b.Interval
+	t := fmt.Sprintf("[%s, %s] %s (%.0f %%, block bootstrap, %d resamples)", sig3(iv[0]), sig3(iv[1]), per, 100*level, reps)
+	if rc := b.RangeCheck; rc != nil && rc.Widened {
+		t = fmt.Sprintf("[%s, %s] %s: the fit range is unsure, so the interval is the spread across ε (block bootstrap alone: [%s, %s])",
+			sig3(iv[0]), sig3(iv[1]), per, sig3(rc.Bootstrap[0]), sig3(rc.Bootstrap[1]))
+	}
+	return t
 }
 
 // fractalStage renders the chain's "fractal" stage: the local slopes of the correlation sums

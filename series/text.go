@@ -441,6 +441,7 @@ type timeCheck struct {
 	n         int
 	t0, prev  float64
 	quantum   float64 // finest precision of the stamps seen
+	maxSig    int     // most significant digits seen in a stamp
 	name      string
 	path      string
 	fieldNo   int
@@ -451,6 +452,9 @@ type timeCheck struct {
 func (c *timeCheck) add(t, q float64, line, col int) error {
 	if c.n == 0 || q < c.quantum {
 		c.quantum = q
+	}
+	if t != 0 && q > 0 {
+		c.maxSig = max(c.maxSig, int(math.Floor(math.Log10(math.Abs(t))))+1-int(math.Round(math.Log10(q))))
 	}
 	if c.n == 0 {
 		c.t0, c.prev, c.n, c.firstLine = t, t, 1, line
@@ -471,9 +475,16 @@ func (c *timeCheck) add(t, q float64, line, col int) error {
 		// Two stamps each rounded to ±q/2 make a step uncertain by q; the mean of the n−1
 		// steps so far is uncertain by q/(n−1). Allow that, or 1% of the step, whichever is
 		// larger, plus float64 round-off of the stamps themselves.
+		// A writer of significant digits (%.6g) rounds larger stamps more coarsely: the step
+		// between two stamps is uncertain by the coarser of their precisions at the most
+		// significant digits seen.
+		q2 := math.Max(c.quantum, math.Max(c.sigQuantum(t), c.sigQuantum(c.prev)))
 		prec := 0.0
 		if 4*c.quantum <= mean {
 			prec = c.quantum * (1 + 1/float64(c.n-1)) * (1 + 1e-9)
+		}
+		if 4*q2 <= mean {
+			prec = math.Max(prec, (q2+c.quantum/float64(c.n-1))*(1+1e-9))
 		}
 		tol := math.Max(prec, 0.01*mean) + 8*0x1p-52*math.Max(math.Abs(t), math.Abs(c.prev))
 		if math.Abs(step-mean) > tol {
@@ -492,6 +503,15 @@ func (c *timeCheck) add(t, q float64, line, col int) error {
 	c.prev = t
 	c.n++
 	return nil
+}
+
+// sigQuantum is the precision of the stamp t written with the most significant digits seen
+// (0 when none is known).
+func (c *timeCheck) sigQuantum(t float64) float64 {
+	if t == 0 || c.maxSig <= 0 {
+		return 0
+	}
+	return math.Pow(10, math.Floor(math.Log10(math.Abs(t)))+1-float64(c.maxSig))
 }
 
 // fmtG formats a number for a message.

@@ -63,6 +63,10 @@ func TestReadTextGood(t *testing.T) {
 		// written precision (common practice: the tolerance is the stamps' rounding).
 		{name: "rounded stamps", file: "a.csv", content: "t,x\n0.00,1\n0.33,2\n0.67,3\n1.00,4\n1.33,5\n1.67,6\n2.00,7\n", want: []float64{1, 2, 3, 4, 5, 6, 7}, dt: 2.0 / 6, col: "x"},
 		{name: "g-format rounded stamps", file: "a.csv", content: "t,x\n0,1\n0.33,2\n0.67,3\n1,4\n1.33,5\n", want: []float64{1, 2, 3, 4, 5}, dt: 1.33 / 4, col: "x"},
+		// 360 Hz stamps written to 6 significant digits (printf %.6g, as the ECG of
+		// testdata/ecg): past 10 s they have one decimal fewer
+		{name: "significant-digit stamps across a decade", file: "a.csv", content: "t,x\n9.98889,0\n9.99167,1\n9.99444,2\n9.99722,3\n10,4\n10.0028,5\n10.0056,6\n10.0083,7\n10.0111,8\n10.0139,9\n",
+			want: []float64{0, 1, 2, 3, 4, 5, 6, 7, 8, 9}, dt: (10.0139 - 9.98889) / 9, t0: 9.98889, col: "x"},
 		{name: "no stamp precision but 1% jitter", file: "a.csv", content: "t,x\n0.000,1\n1.004,2\n1.998,3\n3.003,4\n", want: []float64{1, 2, 3, 4}, dt: 3.003 / 3, col: "x"},
 	}
 	for _, c := range cases {

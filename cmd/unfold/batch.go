@@ -50,7 +50,8 @@ not starting with a dot), glob patterns (quote them to let unfold expand them) a
   DIR/NAME-HASH/   the report of one input (result.json, report.html, figures/); NAME is the file
                    name without extensions, HASH 8 hex digits of the path as given;
   DIR/summary.csv  one row per result folder: file, samples, dt, lag, dimension, lambda_max, d2,
-                   regime, confidence, status (ok, partial or error), error.
+                   regime, confidence, status (ok, partial or error), error, entropy_rate,
+                   statistical_complexity (of the causal states).
 
 Each result is built in a temporary folder and renamed into place, so a crash or kill leaves no
 half-written result. A second run skips every input whose folder holds a complete result for the

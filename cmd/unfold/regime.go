@@ -23,22 +23,20 @@ type regimeOptions struct {
 	plot       string
 }
 
-// regimeRule is the decision rule, shown in --help (the same text as the package comment).
-const regimeRule = `Decision rule, in order:
-  1. Lines. If the spectrum is a line spectrum (at least half the power within ±4 bins of
-     significant lines) whose lines are the harmonics of one fundamental, the regime is
-     periodic; if they are integer combinations of two or three incommensurate fundamentals,
-     quasiperiodic — provided fewer than two chaos indicators contradict: the 0-1 test
-     (K ≥ 0.5), λ1 clearly above zero, D2 saturating at a non-integer value.
-  2. Null. Otherwise K IAAFT surrogates (--surrogates, 19 by default) (a linear Gaussian process seen through a static
-     monotone function) are compared with the data by a nonlinear prediction error (one-sided)
-     and time-reversal asymmetry (two-sided, at level max(0.05, 2/(K+1)): 0.1 with K = 19)
-     in rank tests. If neither rejects the null (rank
-     p ≤ 0.05, and the data at least 3 surrogate standard deviations away), the regime is
-     stochastic, whatever λ1 says.
-  3. Chaos. The null is rejected: chaotic if at least two of the three chaos indicators
-     agree — the 0-1 test gives K ≥ 0.5, λ1's interval is above zero (and λ1 exceeds 1 %
-     growth per delay time), D2 saturates — and λ1 is not ≤ 0; otherwise undetermined.
+// regimeRule is the decision rule, shown in --help (the package comment of regime, shortened).
+var regimeRule = `Decision rule, in order (a deterministic verdict needs evidence specific to it; the 0-1
+test, D2, Cao's E2 and time reversal only support, and are listed as unused with the reason):
+  1. Lines. If significant spectral lines explain at least 90 % of the variance and are the
+     harmonics of one fundamental, the regime is periodic; combinations of two or three
+     incommensurate fundamentals, quasiperiodic — unless the chaos evidence of step 3 holds.
+     A noisy oscillation goes on to step 2 with its dominant cycle named.
+  2. Null. K IAAFT surrogates (--surrogates, ` + strconv.Itoa(analysis.DefaultRegimeOptions().Surrogates) + ` by default: enough for the two-sided
+     time-reversal test at 5 %, Theiler & Prichard 1996) are compared with the data by a
+     nonlinear prediction error (one-sided rank test at 5 %: at least 19 surrogates). If it does
+     not reject, the regime is stochastic, whatever λ1 or K say; the rank result alone decides.
+  3. Chaos. The null is rejected: chaotic when λ1's interval lies above zero and its divergence
+     curve has an exponential range; undetermined when it does not, or when the spectra of the
+     first and last thirds differ (non-stationarity alone can reject the null).
 Confidence is the weighted share of the evidence (lines 3, prediction error 3, 0-1 test 2,
 λ1 2, D2 1.5, reversal 1, Cao E2 1) that points to the regime, times 0.8 for records under
 2000 samples and 0.9 for non-stationary ones; undetermined has confidence 0.`
@@ -82,7 +80,7 @@ func addRegimeFlags(f *pflag.FlagSet, o *regimeOptions) {
 	f.IntVar(&o.lag, "lag", d.Lag, "delay in samples (default: chosen from the mutual information)")
 	f.IntVar(&o.dim, "dim", d.Dim, "embedding dimension (default: chosen by false neighbours and Cao's E1)")
 	f.IntVar(&o.theiler, "theiler", d.Theiler, "Theiler window in samples (default: 1/e decay time of the autocorrelation; 0 excludes only the point itself)")
-	f.IntVar(&o.surrogates, "surrogates", d.Surrogates, "number of IAAFT surrogates (19: one-sided 5 %; 39: two-sided 5 %)")
+	f.IntVar(&o.surrogates, "surrogates", d.Surrogates, "number of IAAFT surrogates (at least 19 for the one-sided prediction test at 5 %, 39 for the two-sided time-reversal test)")
 	f.BoolVar(&o.noLyap, "no-lyapunov", d.NoLyapunov, "leave the Lyapunov exponent out of the evidence")
 	f.StringVar(&o.plot, "plot", "", "draw the evidence: the spectrum with its lines and the surrogate distributions (.png or .svg)")
 }

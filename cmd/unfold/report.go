@@ -68,12 +68,15 @@ Stages run now: inspect (the signal and its spectrum), lag, dim, embed (the stat
 picture) and lyapunov (the divergence curve, with the defaults of 'unfold lyapunov' on the lag,
 dimension and Theiler window chosen above), fractal (the local slopes of the correlation sums,
 with the defaults of 'unfold fractal' on that lag and Theiler window) and regime (the verdict
-with its evidence and cautions, with the defaults of 'unfold regime' — 19 IAAFT surrogates — on
+with its evidence and cautions, with the defaults of 'unfold regime' — 39 IAAFT surrogates — on
 that embedding and the lyapunov stage's exponent), symbols (the defaults of 'unfold symbols' on
 the lag chosen above: the return map with the partition's cut(s); the stream and its sidecar are
 kept in memory, not written, so "output" and "sidecar" are empty) and entropy (the defaults of
-'unfold entropy' on that stream: the block-entropy and entropy-rate curves). A stage that gives no
-answer is recorded with its reason and the others still run. One line per stage goes to stderr
+'unfold entropy' on that stream: the block-entropy and entropy-rate curves) and states (the
+defaults of 'unfold states' on that stream: the causal states and their diagram). A stage that
+gives no answer is recorded with its reason and the others still run (exit status 1); a stage
+that does not apply to the record (too short a record or stream) is "skipped" with its reason and
+what to give, and does not count as missing. One line per stage goes to stderr
 with its wall time (and a bar for long stages when stderr is a terminal); stdout gets the
 summary that opens the page: the verdict, λ1 and D2 with units, the embedding, the cautions
 that matter most and the figure to read first.

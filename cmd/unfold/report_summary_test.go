@@ -70,7 +70,7 @@ func checkDemoSummary(t *testing.T, dir, stdout string) {
 			t.Errorf("page: shows the machine key %q (keys belong in result.json only)", key)
 		}
 	}
-	for _, want := range []string{`id="g-theiler"`, `id="g-iaaft"`, `id="g-zero-one"`, `href="#g-zero-one"`, "not used: supporting evidence only", "better than any of 19"} {
+	for _, want := range []string{`id="g-theiler"`, `id="g-iaaft"`, `id="g-zero-one"`, `href="#g-zero-one"`, "not used: supporting evidence only", "better than any of 39"} {
 		if !strings.Contains(p, want) {
 			t.Errorf("page: lacks %q", want)
 		}

@@ -69,8 +69,8 @@ func lookup(m map[string]any, path string) any {
 // reportDemoStages are the stages of the report, in order (each draws one figure on the page),
 // and reportDemoFigures the names of their figure files.
 var (
-	reportDemoStages  = []string{"inspect", "lag", "dim", "embed", "lyapunov", "fractal", "regime", "symbols", "entropy"}
-	reportDemoFigures = []string{"signal", "lag", "dim", "embed", "lyapunov", "fractal", "regime", "symbols", "entropy"}
+	reportDemoStages  = []string{"inspect", "lag", "dim", "embed", "lyapunov", "fractal", "regime", "symbols", "entropy", "states"}
+	reportDemoFigures = []string{"signal", "lag", "dim", "embed", "lyapunov", "fractal", "regime", "symbols", "entropy", "states"}
 )
 
 // TestReportDemoGolden is the golden test of result.json on the demo signal: the set of keys
@@ -110,7 +110,8 @@ func TestReportDemoGolden(t *testing.T) {
 		"fractal.d2", "fractal.dimension", "fractal.parameters.lag", "fractal.parameters.theiler", "fractal.parameters.max_dim",
 		"regime.confidence", "regime.parameters.lag", "regime.parameters.dim", "regime.parameters.theiler", "regime.parameters.surrogates",
 		"symbols.count", "symbols.alphabet_size", "symbols.partition.score", "symbols.parameters.section.lag", "symbols.parameters.section.level",
-		"entropy.entropy_rate", "entropy.excess_entropy", "entropy.lz76", "entropy.input.samples", "entropy.parameters.rate_length"}
+		"entropy.entropy_rate", "entropy.excess_entropy", "entropy.lz76", "entropy.input.samples", "entropy.parameters.rate_length",
+		"states.states", "states.statistical_complexity", "states.entropy_rate", "states.history_length", "states.input.samples"}
 	var vals bytes.Buffer
 	for _, p := range paths {
 		v, ok := lookup(m, p).(float64)
@@ -153,6 +154,12 @@ func TestReportDemoGolden(t *testing.T) {
 		sha := lookup(m, k+".input.sha256")
 		if k == "entropy" { // its input is the symbol stream; its source is the report's input
 			sha = lookup(m, "entropy.source.sha256")
+		}
+		if k == "states" { // its input is the same symbol stream as the entropy stage's
+			if lookup(m, "states.input.sha256") != lookup(m, "entropy.input.sha256") {
+				t.Errorf("states input %v, entropy input %v", lookup(m, "states.input"), lookup(m, "entropy.input"))
+			}
+			sha = lookup(m, "input.sha256")
 		}
 		if lookup(m, k+".command") != k || sha != lookup(m, "input.sha256") {
 			t.Errorf("%s: command %v, input %v", k, lookup(m, k+".command"), lookup(m, k+".input"))

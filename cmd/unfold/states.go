@@ -1,15 +1,13 @@
 package main
 
 import (
-	"errors"
-	"fmt"
 	"io"
 
 	"github.com/spf13/cobra"
 
+	"unfold/analysis"
 	"unfold/figure"
 	"unfold/states"
-	"unfold/symbolic"
 )
 
 type statesOptions struct {
@@ -22,7 +20,7 @@ type statesOptions struct {
 
 func newStatesCmd(a *app) *cobra.Command {
 	o := &statesOptions{}
-	def := states.DefaultOptions()
+	def := analysis.DefaultStatesOptions()
 	cmd := &cobra.Command{
 		Use:   "states FILE",
 		Short: "Causal states of a symbol stream, statistical complexity and entropy rate",
@@ -65,19 +63,7 @@ L = 1 … L so you see where the states, Cμ and hμ settle.`,
 	return cmd
 }
 
-type statesParams struct {
-	HistoryLength int                    `json:"history_length"`
-	LengthRule    string                 `json:"length_rule"`
-	Significance  float64                `json:"significance"`
-	Alphabet      string                 `json:"alphabet"`
-	From          string                 `json:"from"`
-	Partition     symbolic.PartitionInfo `json:"partition"`
-}
-
 func (a *app) runStates(cmd *cobra.Command, path string, o *statesOptions) error {
-	if o.maxLength < 0 {
-		return usagef("states: --max-length must be ≥ 1")
-	}
 	if !(o.significance > 0 && o.significance < 1) {
 		return usagef("states: --significance %g must lie between 0 and 1", o.significance)
 	}
@@ -88,22 +74,12 @@ func (a *app) runStates(cmd *cobra.Command, path string, o *statesOptions) error
 	for _, n := range st.notes {
 		a.notef("%s", n)
 	}
-	opt := states.Options{MaxLength: o.maxLength, Significance: o.significance}
-	res, err := states.Reconstruct(st.symbols, st.k, opt)
-	var short *states.ErrTooShort
-	switch {
-	case errors.As(err, &short) && o.maxLength > 0:
-		return usagef("states: %s: %v", path, err)
-	case err != nil:
-		return noAnswer(fmt.Errorf("states: %s: %w", path, err))
+	run, p, body, err := a.env(&o.sym.in).States(path, st.symbols, st.k, st.alphabet,
+		analysis.StatesOptions{MaxLength: o.maxLength, Significance: o.significance, Scan: o.scan})
+	if err != nil {
+		return err
 	}
-	var scan []states.ScanRow
-	if o.scan {
-		opt.MaxLength = res.HistoryLength
-		if scan, err = states.Scan(st.symbols, st.k, opt); err != nil {
-			return noAnswer(fmt.Errorf("states: %s: %w", path, err))
-		}
-	}
+	res := run.R
 	if o.plot != "" {
 		if err := writeStatesFile(o.plot, path, func(w io.Writer) error { return figure.StateDiagram(w, res, st.alphabet) }); err != nil {
 			return err
@@ -114,10 +90,8 @@ func (a *app) runStates(cmd *cobra.Command, path string, o *statesOptions) error
 			return err
 		}
 	}
-	body := statesBody(res, st.alphabet, scan)
 	if a.global.JSON {
-		p := statesParams{HistoryLength: res.HistoryLength, LengthRule: res.LengthRule, Significance: res.Significance,
-			Alphabet: st.alphabet, From: st.origin, Partition: st.part}
+		p.From, p.Partition = st.origin, st.part
 		return a.emitJSON("states", st.in, p, body)
 	}
 	return a.statesTable(path, st, body)

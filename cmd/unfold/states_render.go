@@ -5,66 +5,11 @@ import (
 	"strconv"
 	"strings"
 
-	"unfold/states"
+	"unfold/analysis"
 )
 
-type stateJSON struct {
-	ID          int                `json:"id"`
-	Probability float64            `json:"probability"`
-	Count       int64              `json:"count"`
-	Next        map[string]float64 `json:"next"`
-	Suffixes    []string           `json:"suffixes"`
-	SuffixCount int                `json:"suffix_count"`
-}
-
-type transitionJSON struct {
-	From        int     `json:"from"`
-	Symbol      string  `json:"symbol"`
-	To          int     `json:"to"`
-	Probability float64 `json:"probability"`
-}
-
-// statesResult is the JSON body of `states` (DESIGN.md §3).
-type statesResult struct {
-	States                int              `json:"states"`
-	StatisticalComplexity float64          `json:"statistical_complexity"`
-	EntropyRate           float64          `json:"entropy_rate"`
-	HistoryLength         int              `json:"history_length"`
-	LengthRule            string           `json:"length_rule"`
-	Significance          float64          `json:"significance"`
-	StateList             []stateJSON      `json:"state_list"`
-	Transitions           []transitionJSON `json:"transitions"`
-	TransientRemoved      int              `json:"transient_removed"`
-	Scan                  []states.ScanRow `json:"scan,omitempty"`
-	Cautions              []string         `json:"cautions"`
-}
-
-// statesBody turns a reconstruction into the JSON body, naming symbols by the alphabet.
-func statesBody(r *states.Result, alphabet string, scan []states.ScanRow) statesResult {
-	b := statesResult{States: len(r.States), StatisticalComplexity: r.StatisticalComplexity, EntropyRate: r.EntropyRate,
-		HistoryLength: r.HistoryLength, LengthRule: r.LengthRule, Significance: r.Significance,
-		StateList: []stateJSON{}, Transitions: []transitionJSON{}, TransientRemoved: r.Transient, Scan: scan, Cautions: r.Cautions}
-	for _, s := range r.States {
-		sj := stateJSON{ID: s.ID, Probability: s.Probability, Count: s.Count, Next: map[string]float64{}, SuffixCount: s.SuffixCount}
-		for a, p := range s.Next {
-			sj.Next[states.SymbolName(a, alphabet)] = p
-		}
-		for _, h := range s.Suffixes {
-			sj.Suffixes = append(sj.Suffixes, states.SuffixString(h, alphabet))
-		}
-		b.StateList = append(b.StateList, sj)
-	}
-	for _, t := range r.Transitions {
-		b.Transitions = append(b.Transitions, transitionJSON{From: t.From, Symbol: states.SymbolName(t.Symbol, alphabet), To: t.To, Probability: t.Probability})
-	}
-	if b.Cautions == nil {
-		b.Cautions = []string{}
-	}
-	return b
-}
-
 // statesTable prints the human-readable summary of `states`.
-func (a *app) statesTable(path string, st *statesStream, b statesResult) error {
+func (a *app) statesTable(path string, st *statesStream, b analysis.StatesResult) error {
 	g := func(v float64) string { return strconv.FormatFloat(v, 'f', 4, 64) }
 	rows := [][]string{
 		{"file", path},

@@ -67,7 +67,8 @@ func readSummary(t *testing.T, dir string) (header []string, rows map[string][]s
 		t.Fatalf("%s/summary.csv is empty", dir)
 	}
 	header = recs[0]
-	want := []string{"file", "samples", "dt", "lag", "dimension", "lambda_max", "d2", "regime", "confidence", "status", "error"}
+	want := []string{"file", "samples", "dt", "lag", "dimension", "lambda_max", "d2", "regime", "confidence", "status", "error",
+		"entropy_rate", "statistical_complexity"}
 	if strings.Join(header, ",") != strings.Join(want, ",") {
 		t.Fatalf("%s/summary.csv header %v, want %v", dir, header, want)
 	}
