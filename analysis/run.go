@@ -253,6 +253,7 @@ func Run(ctx context.Context, s *series.Series, opt Options) (*Result, error) {
 	var lambda *regime.Exponent
 	var noLyap bool
 	var d2 *FractalRun
+	var scaleExp int
 
 	stages := []struct {
 		key string
@@ -452,6 +453,10 @@ func Run(ctx context.Context, s *series.Series, opt Options) (*Result, error) {
 		if opt.Partial != nil {
 			opt.Partial(res)
 		}
+		if stg.key == "inspect" {
+			s, scaleExp = scaledForChain(s) // inspect states the record as given
+		}
 	}
+	Unscale(res, scaleExp)
 	return res, nil
 }
