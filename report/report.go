@@ -17,12 +17,14 @@ import (
 	"fmt"
 	"os"
 	"path/filepath"
+	"strings"
 	"time"
 
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/vg"
 
 	"unfold/figure"
+	"unfold/internal/safejson"
 	"unfold/series"
 )
 
@@ -188,10 +190,14 @@ func Run(h Header, stages []Stage, before func(key string), after func(key strin
 // "status", "provenance", then each stage's object under its key in the order the stages ran.
 func (r *Result) JSON() ([]byte, error) {
 	var buf bytes.Buffer
+	var nulled []string
 	put := func(key string, v any) error {
-		b, err := json.Marshal(v)
+		b, null, err := safejson.Marshal(v) // a non-finite number is written as null
 		if err != nil {
 			return fmt.Errorf("report: encoding %s: %w", key, err)
+		}
+		for _, p := range null {
+			nulled = append(nulled, strings.TrimSuffix(key+"."+p, "."))
 		}
 		if buf.Len() > 1 {
 			buf.WriteByte(',')
@@ -221,6 +227,11 @@ func (r *Result) JSON() ([]byte, error) {
 			if err := put(k, s.JSON); err != nil {
 				return nil, err
 			}
+		}
+	}
+	if len(nulled) > 0 {
+		if err := put("cautions", safejson.Cautions(nulled)); err != nil {
+			return nil, err
 		}
 	}
 	buf.WriteByte('}')

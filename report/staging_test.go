@@ -2,6 +2,8 @@ package report
 
 import (
 	"context"
+	"encoding/json"
+	"fmt"
 	"math"
 	"os"
 	"path/filepath"
@@ -103,5 +105,27 @@ func TestPartialPages(t *testing.T) {
 	}
 	if k < 5 {
 		t.Errorf("Partial was called %d times", k)
+	}
+}
+
+// TestResultJSONNonFinite: result.json never fails: a non-finite number anywhere is written as
+// null with a top-level caution naming the field.
+func TestResultJSONNonFinite(t *testing.T) {
+	r := &Result{Header: Header{Version: "v", Input: Input{Path: "x.csv", Dt: math.NaN()}, Parameters: map[string]float64{"azimuth": math.Inf(1)}},
+		Titles: map[string]string{}, Sections: map[string]*Section{}, Errors: map[string]string{}}
+	b, err := r.JSON()
+	if err != nil {
+		t.Fatal(err)
+	}
+	var m map[string]any
+	if err := json.Unmarshal(b, &m); err != nil {
+		t.Fatalf("invalid JSON: %v", err)
+	}
+	if in := m["input"].(map[string]any); in["dt"] != nil {
+		t.Errorf("dt = %v, want null", in["dt"])
+	}
+	c := fmt.Sprint(m["cautions"])
+	if !strings.Contains(c, "input.dt") || !strings.Contains(c, "parameters.azimuth") {
+		t.Errorf("cautions %s do not name input.dt and parameters.azimuth", c)
 	}
 }
