@@ -76,6 +76,11 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) (code int) {
 		if p := recover(); p != nil {
 			fmt.Fprintf(stderr, "unfold: internal error, please report: %v (input %s)\n", p, inputsOf(args))
 			if os.Getenv("UNFOLD_DEBUG") == "1" {
+				if w, ok := p.(interface{ WorkerStack() []byte }); ok {
+					fmt.Fprintln(stderr, "worker goroutine:")
+					stderr.Write(w.WorkerStack())
+					fmt.Fprintln(stderr, "calling goroutine:")
+				}
 				stderr.Write(debug.Stack())
 			}
 			code = exitInternal
