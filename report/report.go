@@ -133,6 +133,7 @@ func (r *Result) Status() string {
 // with its key, wall time and error (nil on success) once it has run; either may be nil.
 func Run(h Header, stages []Stage, before func(key string), after func(key string, took time.Duration, err error)) *Result {
 	start := time.Now()
+	h.Title, h.Input.Path = series.CleanText(h.Title), series.CleanText(h.Input.Path) // input text is made valid UTF-8
 	r := &Result{Header: h, Titles: map[string]string{}, Sections: map[string]*Section{}, Errors: map[string]string{}}
 	r.Provenance = Provenance{Version: h.Version, Commit: h.Commit, CommandLine: h.CommandLine, Seeds: h.Seeds,
 		InputSHA256: h.Input.SHA256, Started: start.UTC().Format(time.RFC3339), Stages: []StageRecord{}}

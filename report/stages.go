@@ -77,7 +77,7 @@ func Stages(res *analysis.Result, s *series.Series, fig figure.Record, view View
 			if s.Unit != "" {
 				unit = " " + s.Unit
 			}
-			return &Section{JSON: js, Figures: []Figure{f}, Cautions: sm.Cautions, Summary: [][2]string{
+			rows := [][2]string{
 				{"signal", s.Name},
 				{"samples", strconv.Itoa(sm.Samples)},
 				{"sampling interval", g(sm.Dt) + " time units (duration " + g(sm.Duration) + ")"},
@@ -88,7 +88,11 @@ func Stages(res *analysis.Result, s *series.Series, fig figure.Record, view View
 				{"gaps filled", strconv.Itoa(sm.GapsFilled)},
 				{"stationary", fmt.Sprintf("%v (mean shift %.1f, variance shift %.1f standard errors)",
 					sm.Stationarity.Stationary, sm.Stationarity.MeanShift, sm.Stationarity.VarianceShift)},
-			}}, nil
+			}
+			for _, n := range res.Inspect.Body.Notes {
+				rows = append(rows, [2]string{"reading", n})
+			}
+			return &Section{JSON: js, Figures: []Figure{f}, Cautions: sm.Cautions, Summary: rows}, nil
 		}},
 		{Key: "lag", Title: "Delay: mutual information and autocorrelation", Run: func() (*Section, error) {
 			if res.Lag == nil {

@@ -1,6 +1,7 @@
 package report
 
 import (
+	"bytes"
 	"context"
 	"encoding/json"
 	"fmt"
@@ -9,6 +10,7 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+	"unicode/utf8"
 
 	"unfold/analysis"
 	"unfold/figure"
@@ -127,5 +129,23 @@ func TestResultJSONNonFinite(t *testing.T) {
 	c := fmt.Sprint(m["cautions"])
 	if !strings.Contains(c, "input.dt") || !strings.Contains(c, "parameters.azimuth") {
 		t.Errorf("cautions %s do not name input.dt and parameters.azimuth", c)
+	}
+}
+
+// TestTitleCleaned: a file name with bytes that are not UTF-8 reaches the page and result.json
+// as valid UTF-8 (series.CleanText).
+func TestTitleCleaned(t *testing.T) {
+	bad := "run\xff\xfe.csv"
+	r := Run(Header{Title: bad, Input: Input{Path: "/d/" + bad}}, nil, nil, nil)
+	b, err := r.JSON()
+	if err != nil || !utf8.Valid(b) {
+		t.Fatalf("result.json: %v, valid UTF-8 %v", err, utf8.Valid(b))
+	}
+	var page bytes.Buffer
+	if err := r.writeHTML(&page, nil); err != nil {
+		t.Fatal(err)
+	}
+	if !utf8.Valid(page.Bytes()) || !strings.Contains(page.String(), "run") {
+		t.Error("the page is not valid UTF-8 or lost the name")
 	}
 }

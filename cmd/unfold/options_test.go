@@ -1,6 +1,7 @@
 package main
 
 import (
+	"fmt"
 	"os"
 	"path/filepath"
 	"strings"
@@ -43,5 +44,34 @@ func TestOptionRanges(t *testing.T) {
 		if code != exitBadInput || !strings.Contains(errOut, c.want) {
 			t.Errorf("%v: exit %d, stderr %q; want exit 2 and %q", c.args, code, errOut, c.want)
 		}
+	}
+}
+
+// TestInspectNotes: the reader's notes (decimal commas, ISO time stamps, the column taken
+// among several) are printed by inspect, in the table and in the JSON "notes".
+func TestInspectNotes(t *testing.T) {
+	var b strings.Builder
+	b.WriteString("date;a;b\n")
+	for i := range 60 {
+		fmt.Fprintf(&b, "2026-01-01T00:%02d:%02dZ;%d,%d;1,5\n", i/60, i%60, i%7, i%3)
+	}
+	p := filepath.Join(t.TempDir(), "dc.csv")
+	if err := os.WriteFile(p, []byte(b.String()), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	out, errOut, code := runCLI(t, "", "inspect", p)
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	for _, want := range []string{"decimal commas", "ISO-8601", `using "a"`} {
+		if !strings.Contains(out, want) {
+			t.Errorf("the table does not mention %q:\n%s", want, out)
+		}
+	}
+	out, _, _ = runCLI(t, "", "inspect", "--json", p)
+	m := decode(t, out)
+	notes, _ := m["notes"].([]any)
+	if len(notes) < 3 {
+		t.Errorf("JSON notes = %v", m["notes"])
 	}
 }
