@@ -37,6 +37,9 @@ func TestOptionRanges(t *testing.T) {
 		{[]string{"regime", "--surrogates", "0", p}, "--surrogates ≥ 1"},
 		{[]string{"symbols", "--alphabet", "1", "-o", filepath.Join(dir, "x.sym"), p}, "--alphabet 1: want 2 to"},
 		{[]string{"dim", "--max-dimm", "3", p}, "did you mean --max-dim?"},
+		{[]string{"dim", "--fnn-threshold", "1.5", p}, "--fnn-threshold 1.5: want a value between 0 and 1"},
+		{[]string{"report", "--dim", "100", "-o", filepath.Join(dir, "rep"), p}, "--dim 100 needs at least"},
+		{[]string{"report", "--lag", "600", "-o", filepath.Join(dir, "rep"), p}, "--lag 600: want at most 500"},
 		{[]string{"lag", "--thraeds", "2", p}, "did you mean --threads?"},
 		{[]string{"inspect", "--column", "strian", hdr}, `no column "strian"; did you mean "strain"? the columns are 1 "t", 2 "strain", 3 "temp"`},
 	} {

@@ -148,6 +148,9 @@ func (a *app) runReport(cmd *cobra.Command, path string, args []string, o *repor
 	if err != nil {
 		return err
 	}
+	if err := analysis.CheckEmbedding(s.Len(), o.lag, o.dim, o.theiler); err != nil {
+		return fmt.Errorf("report: %s: %w", title, err)
+	}
 	a.notef("report: %s: %d samples, dt %s", title, s.Len(), fmtG(s.Dt))
 	a.notef("report: the page fills in at %s; it moves to %s when the chain ends", stg.Page(), o.output)
 	o.staging = stg
