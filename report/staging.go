@@ -123,17 +123,21 @@ func (st *Staging) Commit(r *Result, opt WriteOptions) ([]string, error) {
 func (st *Staging) Abort() { os.RemoveAll(st.Dir) }
 
 // BuildPartial is Build with only the stages of res that have run (the page of a chain still
-// running has one section per finished stage).
+// running has one section per finished stage, and its title says how many are done).
 func BuildPartial(h Header, res *analysis.Result, s *series.Series, fig figure.Record, view View) *Result {
 	done := map[string]bool{}
 	for _, r := range res.Stages {
 		done[r.Key] = true
 	}
 	var stages []Stage
-	for _, st := range Stages(res, s, fig, view) {
+	all := Stages(res, s, fig, view)
+	for _, st := range all {
 		if done[st.Key] {
 			stages = append(stages, st)
 		}
+	}
+	if len(stages) < len(all) {
+		h.Title += fmt.Sprintf(" — running… (%d of %d stages done; this page is rewritten after each)", len(stages), len(all))
 	}
 	return Run(h, stages, nil, nil)
 }

@@ -87,7 +87,7 @@ func TestPartialPages(t *testing.T) {
 		t.Fatal(err)
 	}
 	defer st.Abort()
-	k := 0
+	k, total := 0, len(Stages(&analysis.Result{}, s, figure.Record{}, View{}))
 	opt := analysis.Options{Threads: 1, Partial: func(r *analysis.Result) {
 		k++
 		if err := st.WritePartial(Header{Title: "x"}, r, s, figure.Record{}, View{}, WriteOptions{}); err != nil {
@@ -100,6 +100,9 @@ func TestPartialPages(t *testing.T) {
 		}
 		if n := strings.Count(string(b), "<section id=") - strings.Count(string(b), `<section id="provenance"`); n != k {
 			t.Errorf("after stage %d the page has %d sections", k, n)
+		}
+		if running := strings.Contains(string(b), "running…"); running != (k < total) {
+			t.Errorf("after stage %d: the page says running: %v", k, running)
 		}
 	}}
 	if _, err := analysis.Run(context.Background(), s, opt); err != nil {
