@@ -23,12 +23,20 @@ func ParseNorm(s string) (neighbors.Norm, error) {
 // command on path. A dimension scan that gives no dimension is not an error here: it is kept
 // in the choice (see DimError).
 func (e *Env) Choose(command, path string, x []float64, o embed.ChooseOptions) (*embed.Choice, error) {
+	if err := CheckEmbedding(len(x), o.Lag, o.Dim, o.Theiler); err != nil {
+		return nil, fmt.Errorf("%s: %s: %w", command, path, err)
+	}
 	o.LagOptions.MI.Threads = e.threads()
 	o.DimOptions.Threads = e.threads()
 	o.DimOptions.Progress = e.progress("false neighbours")
 	c, err := embed.Choose(x, o)
 	if err != nil {
 		return nil, NoAnswer(fmt.Errorf("%s: %s: %w", command, path, err))
+	}
+	if o.Dim > 0 && o.Lag == 0 {
+		if err := CheckEmbedding(len(x), c.Lag.Value, o.Dim, 0); err != nil {
+			return nil, fmt.Errorf("%s: %s: %w (with the chosen lag; give a smaller --dim or a longer record)", command, path, err)
+		}
 	}
 	if c.LagChoice != nil {
 		e.notef("lag %d chosen (%s): %s", c.Lag.Value, c.Lag.Rule, c.LagChoice.Reason)

@@ -75,8 +75,11 @@ func CheckDim(o DimOptions) error {
 	if _, err := ParseNorm(o.Norm); err != nil {
 		return err
 	}
-	if o.MaxDim < 1 || o.Lag < 0 || !(o.RTol > 0) || !(o.ATol > 0) || !(o.Threshold > 0 && o.Threshold < 1) {
-		return Usagef("dim: want --max-dim ≥ 1, --lag ≥ 0, --rtol > 0, --atol > 0, 0 < --fnn-threshold < 1")
+	if err := CheckFraction("fnn-threshold", o.Threshold); err != nil {
+		return err
+	}
+	if o.MaxDim < 1 || o.Lag < 0 || !(o.RTol > 0) || !(o.ATol > 0) {
+		return Usagef("dim: want --max-dim ≥ 1, --lag ≥ 0, --rtol > 0 and --atol > 0 (got %d, %d, %g, %g)", o.MaxDim, o.Lag, o.RTol, o.ATol)
 	}
 	if o.Theiler < embed.TheilerAuto {
 		return Usagef("dim: want --theiler ≥ -1")

@@ -17,7 +17,10 @@ type InspectResult struct {
 	DominantPeriod float64             `json:"dominant_period"`
 	GapsFilled     int                 `json:"gaps_filled"`
 	Stationarity   series.Stationarity `json:"stationarity"`
-	Cautions       []string            `json:"cautions"`
+	// Notes are the reader's automatic choices (series.Series.Notes): decimal commas, ISO
+	// time stamps, the column taken among several.
+	Notes    []string `json:"notes"`
+	Cautions []string `json:"cautions"`
 }
 
 // InspectParams are the "parameters" of the inspect stage.
@@ -48,7 +51,17 @@ func (e *Env) Inspect(path string, s *series.Series) (InspectParams, InspectResu
 	res := InspectResult{
 		Duration: sm.Duration, Mean: sm.Mean, Std: sm.Std, Min: sm.Min, Max: sm.Max,
 		Quantization: sm.Quantization, DominantPeriod: sm.DominantPeriod,
-		GapsFilled: sm.GapsFilled, Stationarity: sm.Stationarity, Cautions: sm.Cautions,
+		GapsFilled: sm.GapsFilled, Stationarity: sm.Stationarity, Notes: CleanNotes(s.Notes), Cautions: sm.Cautions,
 	}
 	return p, res, sm, nil
+}
+
+// CleanNotes returns the reader's notes as valid UTF-8 text (series.CleanText; they quote
+// header names from the input), [] when there are none.
+func CleanNotes(notes []string) []string {
+	out := make([]string, len(notes))
+	for i, n := range notes {
+		out[i] = series.CleanText(n)
+	}
+	return out
 }

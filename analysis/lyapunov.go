@@ -131,6 +131,9 @@ func CheckLyapunov(o LyapunovOptions) (lyapunov.Method, neighbors.Norm, error) {
 	if o.Lag < 0 || o.Dim < 0 || o.Horizon < 0 || o.MaxNeighbors < 1 || o.Reps < 2 || o.MaxDim < 1 || o.Neighbors < 0 || o.Evolve < 0 {
 		return 0, 0, Usagef("lyapunov: want --lag, --dim, --horizon, --neighbors, --evolve ≥ 0, --max-neighbors ≥ 1, --reps ≥ 2, --max-dim ≥ 1")
 	}
+	if err := CheckEmbedding(0, o.Lag, o.Dim, o.Theiler); err != nil {
+		return 0, 0, fmt.Errorf("lyapunov: %w", err)
+	}
 	if (o.FitFrom >= 0) != (o.FitTo >= 0) {
 		return 0, 0, Usagef("lyapunov: give both --fit-from and --fit-to, or neither")
 	}

@@ -55,6 +55,10 @@ type Options struct {
 	Progress func(label string) func(done, total int)
 	// After, when not nil, is called after every stage with its key, wall time and error.
 	After func(key string, took time.Duration, err error)
+	// Partial, when not nil, is called after After with the result so far (the stages done,
+	// in order), so a page can be written while the chain runs. It must not keep res past the
+	// call's return except to read it.
+	Partial func(res *Result)
 }
 
 // Stage statuses, as in StageRecord.Status.
@@ -257,6 +261,7 @@ func Run(ctx context.Context, s *series.Series, opt Options) (*Result, error) {
 	var lambda *regime.Exponent
 	var noLyap bool
 	var d2 *FractalRun
+	var scaleExp int
 
 	stages := []struct {
 		key string
@@ -465,6 +470,13 @@ func Run(ctx context.Context, s *series.Series, opt Options) (*Result, error) {
 		if opt.After != nil {
 			opt.After(stg.key, took, err)
 		}
+		if opt.Partial != nil {
+			opt.Partial(res)
+		}
+		if stg.key == "inspect" {
+			s, scaleExp = scaledForChain(s) // inspect states the record as given
+		}
 	}
+	Unscale(res, scaleExp)
 	return res, nil
 }

@@ -6,6 +6,8 @@ import (
 	"math"
 	"slices"
 	"sync"
+
+	"unfold/internal/workers"
 )
 
 // Estimators of the mutual information.
@@ -197,26 +199,30 @@ func histogramMI(x []float64, maxLag int, opt MIOptions) (*MICurve, error) {
 	threads := max(opt.Threads, 1)
 	threads = min(threads, maxLag+1)
 	var wg sync.WaitGroup
+	var g workers.Guard
 	for w := 0; w < threads; w++ {
 		wg.Add(1)
 		go func(w int) {
 			defer wg.Done()
-			h := newHistWork(bins, blocks)
-			for k := w; k <= maxLag; k += threads {
-				var blockSE float64
-				c.Nats[k], blockSE, c.GridErr[k], c.BlockNats[k] = h.lag(b, bs, k)
-				if k == 0 {
-					// I(X;X) on one grid is the entropy of the binned record, ln B for
-					// equiprobable bins without ties; the two grids are not comparable here.
-					c.Nats[0], c.BlockNats[0] = h.lagZero(b)
-					c.GridErr[0] = 0
-					blockSE = 0
+			g.Run(func() {
+				h := newHistWork(bins, blocks)
+				for k := w; k <= maxLag; k += threads {
+					var blockSE float64
+					c.Nats[k], blockSE, c.GridErr[k], c.BlockNats[k] = h.lag(b, bs, k)
+					if k == 0 {
+						// I(X;X) on one grid is the entropy of the binned record, ln B for
+						// equiprobable bins without ties; the two grids are not comparable here.
+						c.Nats[0], c.BlockNats[0] = h.lagZero(b)
+						c.GridErr[0] = 0
+						blockSE = 0
+					}
+					c.Err[k] = math.Hypot(blockSE, c.GridErr[k])
 				}
-				c.Err[k] = math.Hypot(blockSE, c.GridErr[k])
-			}
+			})
 		}(w)
 	}
 	wg.Wait()
+	g.Repanic()
 	return c, nil
 }
 

@@ -12,6 +12,8 @@ import (
 
 	"unfold/fit"
 	"unfold/neighbors"
+
+	"unfold/internal/workers"
 )
 
 // Method selects the divergence curve.
@@ -742,37 +744,41 @@ func (o Options) accumulate(x []float64, ix *neighbors.Index, nref int, refs []i
 	var mu sync.Mutex
 	done := 0
 	var wg sync.WaitGroup
+	var g workers.Guard
 	for range threads {
 		wg.Go(func() {
-			w := newWorker(o, x, ix, nref, ne)
-			for {
-				b := int(next.Add(1) - 1)
-				if b >= o.Blocks {
-					return
+			g.Run(func() {
+				w := newWorker(o, x, ix, nref, ne)
+				for {
+					b := int(next.Add(1) - 1)
+					if b >= o.Blocks {
+						return
+					}
+					lo, hi := b*len(refs)/o.Blocks, (b+1)*len(refs)/o.Blocks
+					for e := range ne {
+						s, c := a.block(e, b)
+						w.sum[e], w.cnt[e] = s, c
+					}
+					for _, i := range refs[lo:hi] {
+						w.reference(i)
+					}
+					for e := range ne {
+						withNb[e*o.Blocks+b] = w.refs[e]
+						frozen[e*o.Blocks+b] = w.frozen[e]
+						w.refs[e], w.frozen[e] = 0, 0
+					}
+					if o.Progress != nil {
+						mu.Lock()
+						done += hi - lo
+						o.Progress(done, len(refs))
+						mu.Unlock()
+					}
 				}
-				lo, hi := b*len(refs)/o.Blocks, (b+1)*len(refs)/o.Blocks
-				for e := range ne {
-					s, c := a.block(e, b)
-					w.sum[e], w.cnt[e] = s, c
-				}
-				for _, i := range refs[lo:hi] {
-					w.reference(i)
-				}
-				for e := range ne {
-					withNb[e*o.Blocks+b] = w.refs[e]
-					frozen[e*o.Blocks+b] = w.frozen[e]
-					w.refs[e], w.frozen[e] = 0, 0
-				}
-				if o.Progress != nil {
-					mu.Lock()
-					done += hi - lo
-					o.Progress(done, len(refs))
-					mu.Unlock()
-				}
-			}
+			})
 		})
 	}
 	wg.Wait()
+	g.Repanic()
 	a.refs = make([]int, ne)
 	a.repeating = make([]int, ne)
 	for e := range ne {

@@ -9,6 +9,8 @@ import (
 
 	"unfold/models"
 	"unfold/neighbors"
+
+	guard "unfold/internal/workers"
 )
 
 // SpectrumOptions set the embedding and the local fits of Spectrum. Lag and Dim are required;
@@ -137,16 +139,20 @@ func Spectrum(x []float64, opt SpectrumOptions) (*SpectrumResult, error) {
 	for start := 0; start < steps; start += batch {
 		nb := min(batch, steps-start)
 		var wg sync.WaitGroup
+		var g guard.Guard
 		for t := range threads {
 			wg.Go(func() {
-				w := workers[t]
-				for b := t; b < nb; b += threads {
-					i := (start + b) * o.Evolve
-					ok[b] = w.fit(i, hi, maps[b*m*m:(b+1)*m*m])
-				}
+				g.Run(func() {
+					w := workers[t]
+					for b := t; b < nb; b += threads {
+						i := (start + b) * o.Evolve
+						ok[b] = w.fit(i, hi, maps[b*m*m:(b+1)*m*m])
+					}
+				})
 			})
 		}
 		wg.Wait()
+		g.Repanic()
 		for b := range nb {
 			if !ok[b] {
 				continue

@@ -6,6 +6,8 @@ import (
 	"sort"
 	"sync"
 	"sync/atomic"
+
+	"unfold/internal/workers"
 )
 
 // resolveThreads returns the number of goroutines to use for threads (<= 0: all cores).
@@ -49,10 +51,12 @@ func (ix *Index) parallel(total, chunk, threads int, progress func(done, total i
 		return
 	}
 	var wg sync.WaitGroup
+	var g workers.Guard
 	for range threads {
-		wg.Go(work)
+		wg.Go(func() { g.Run(work) })
 	}
 	wg.Wait()
+	g.Repanic()
 }
 
 // each turns a chunk body that needs only the goroutine's Searcher into parallel's setup form.
@@ -225,11 +229,13 @@ func (ix *Index) PairCounts(radii []float64, theiler int, threads int, progress 
 		work(hists[0])
 	} else {
 		var wg sync.WaitGroup
+		var g workers.Guard
 		for t := range threads {
 			h := hists[t]
-			wg.Go(func() { work(h) })
+			wg.Go(func() { g.Run(func() { work(h) }) })
 		}
 		wg.Wait()
+		g.Repanic()
 	}
 	for _, h := range hists {
 		for b := range top {
@@ -735,10 +741,12 @@ func (ix *Index) ReferencePairCountsUntil(refs []int, radii []float64, theiler, 
 			body(0)
 		} else {
 			var wg sync.WaitGroup
+			var g workers.Guard
 			for t := range min(threads, len(part)) {
-				wg.Go(func() { body(t) })
+				wg.Go(func() { g.Run(func() { body(t) }) })
 			}
 			wg.Wait()
+			g.Repanic()
 		}
 		var cum int64
 		for k := range active {

@@ -5,6 +5,8 @@ import (
 	"fmt"
 	"math"
 	"sync"
+
+	"unfold/internal/workers"
 )
 
 // Norm selects the distance between two points.
@@ -202,9 +204,11 @@ func (b *builder) node(id, start, end, depth int) {
 	r := l + nodeCount(mid-start)
 	if end-start >= parallelBuildSize && depth < 4 {
 		var wg sync.WaitGroup
-		wg.Go(func() { b.node(l, start, mid, depth+1) })
+		var g workers.Guard
+		wg.Go(func() { g.Run(func() { b.node(l, start, mid, depth+1) }) })
 		b.node(r, mid, end, depth+1)
 		wg.Wait()
+		g.Repanic()
 	} else {
 		b.node(l, start, mid, depth+1)
 		b.node(r, mid, end, depth+1)

@@ -2,6 +2,8 @@ package regime
 
 import (
 	"sync"
+
+	"unfold/internal/workers"
 )
 
 // maxFactor is the largest prime factor allowed in the FFT lengths of this package (surrogates,
@@ -32,12 +34,15 @@ func parallelFor(n, threads int, progress func(done, total int), fn func(i int))
 	next := make(chan int)
 	done := make(chan struct{}, n)
 	var wg sync.WaitGroup
+	var guard workers.Guard
 	for range max(1, min(threads, n)) {
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
-			for i := range next {
-				fn(i)
+			for i := range next { // drained even after a panic, so every item is counted
+				if !guard.Failed() {
+					guard.Run(func() { fn(i) })
+				}
 				done <- struct{}{}
 			}
 		}()
@@ -55,4 +60,5 @@ func parallelFor(n, threads int, progress func(done, total int), fn func(i int))
 		}
 	}
 	wg.Wait()
+	guard.Repanic()
 }

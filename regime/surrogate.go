@@ -13,6 +13,8 @@ import (
 	"gonum.org/v1/gonum/dsp/fourier"
 
 	"unfold/spectral"
+
+	"unfold/internal/workers"
 )
 
 // Method is a way of generating surrogate data.
@@ -167,15 +169,22 @@ func Surrogates(x []float64, opt SurrogateOptions) (*SurrogateSet, error) {
 	set.Surrogates = make([]Surrogate, opt.Count)
 	threads := max(opt.Threads, 1)
 	var wg sync.WaitGroup
+	var guard workers.Guard
 	next := make(chan int)
 	for range min(threads, opt.Count) {
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
-			w := g.newWorker()
-			for i := range next {
-				rng := SubRand(opt.Seed, uint64(i))
-				set.Surrogates[i] = w.generate(opt.Method, rng, opt.MaxIter)
+			var w *worker
+			guard.Run(func() { w = g.newWorker() })
+			for i := range next { // drained even after a panic, so the sender never blocks
+				if w == nil || guard.Failed() {
+					continue
+				}
+				guard.Run(func() {
+					rng := SubRand(opt.Seed, uint64(i))
+					set.Surrogates[i] = w.generate(opt.Method, rng, opt.MaxIter)
+				})
 			}
 		}()
 	}
@@ -184,6 +193,7 @@ func Surrogates(x []float64, opt SurrogateOptions) (*SurrogateSet, error) {
 	}
 	close(next)
 	wg.Wait()
+	guard.Repanic()
 	notConv := 0
 	for _, s := range set.Surrogates {
 		if !s.Converged {

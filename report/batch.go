@@ -739,7 +739,7 @@ func (h *resultHead) row() Row {
 		}
 		return strconv.Itoa(*v)
 	}
-	r := Row{0: h.Input.Path, 1: n(h.Input.Samples), 2: g(h.Input.Dt), 9: h.Status, 10: h.Error}
+	r := Row{0: series.CleanText(h.Input.Path), 1: n(h.Input.Samples), 2: g(h.Input.Dt), 9: h.Status, 10: series.CleanText(h.Error)}
 	if h.Lag != nil {
 		r[3] = n(h.Lag.Lag)
 	}

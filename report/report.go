@@ -17,6 +17,7 @@ import (
 	"fmt"
 	"os"
 	"path/filepath"
+	"strings"
 	"time"
 
 	"gonum.org/v1/plot"
@@ -24,6 +25,7 @@ import (
 
 	"unfold/analysis"
 	"unfold/figure"
+	"unfold/internal/safejson"
 	"unfold/series"
 )
 
@@ -125,7 +127,7 @@ type Result struct {
 	Errors     map[string]string   // stage key → why it gave no answer
 	// Summary is the block at the top of the page (Build sets it; nil: the page has none).
 	Summary *Summary
-	Skipped    map[string]string   // stage key → why it does not apply (not an error)
+	Skipped map[string]string // stage key → why it does not apply (not an error)
 }
 
 // Status is StatusOK when every stage gave an answer or was skipped (did not apply, with its
@@ -141,6 +143,7 @@ func (r *Result) Status() string {
 // with its key, wall time and error (nil on success) once it has run; either may be nil.
 func Run(h Header, stages []Stage, before func(key string), after func(key string, took time.Duration, err error)) *Result {
 	start := time.Now()
+	h.Title, h.Input.Path = series.CleanText(h.Title), series.CleanText(h.Input.Path) // input text is made valid UTF-8
 	r := &Result{Header: h, Titles: map[string]string{}, Sections: map[string]*Section{}, Errors: map[string]string{}, Skipped: map[string]string{}}
 	r.Provenance = Provenance{Version: h.Version, Commit: h.Commit, CommandLine: h.CommandLine, Seeds: h.Seeds,
 		InputSHA256: h.Input.SHA256, Started: start.UTC().Format(time.RFC3339), Stages: []StageRecord{}}
@@ -205,10 +208,14 @@ func Run(h Header, stages []Stage, before func(key string), after func(key strin
 // "status", "summary" (the page's summary block; null without one), "provenance", then each stage's object under its key in the order the stages ran.
 func (r *Result) JSON() ([]byte, error) {
 	var buf bytes.Buffer
+	var nulled []string
 	put := func(key string, v any) error {
-		b, err := json.Marshal(v)
+		b, null, err := safejson.Marshal(v) // a non-finite number is written as null
 		if err != nil {
 			return fmt.Errorf("report: encoding %s: %w", key, err)
+		}
+		for _, p := range null {
+			nulled = append(nulled, strings.TrimSuffix(key+"."+p, "."))
 		}
 		if buf.Len() > 1 {
 			buf.WriteByte(',')
@@ -238,6 +245,11 @@ func (r *Result) JSON() ([]byte, error) {
 			if err := put(k, s.JSON); err != nil {
 				return nil, err
 			}
+		}
+	}
+	if len(nulled) > 0 {
+		if err := put("cautions", safejson.Cautions(nulled)); err != nil {
+			return nil, err
 		}
 	}
 	buf.WriteByte('}')

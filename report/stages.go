@@ -83,7 +83,7 @@ func Stages(res *analysis.Result, s *series.Series, fig figure.Record, view View
 				unit = " " + s.Unit
 			}
 			tu := func(v float64) string { return g(v) + " " + timeUnits(fig.TimeUnit) }
-			return &Section{JSON: js, Figures: []Figure{f}, Cautions: sm.Cautions, Summary: [][2]string{
+			rows := [][2]string{
 				{"signal", s.Name},
 				{"samples", strconv.Itoa(sm.Samples)},
 				{"sampling interval", tu(sm.Dt) + " (duration " + tu(sm.Duration) + ")"},
@@ -94,7 +94,11 @@ func Stages(res *analysis.Result, s *series.Series, fig figure.Record, view View
 				{"gaps filled", strconv.Itoa(sm.GapsFilled)},
 				{"stationary", fmt.Sprintf("%s (mean shift %.1f, variance shift %.1f standard errors)",
 					yesNo(sm.Stationarity.Stationary), sm.Stationarity.MeanShift, sm.Stationarity.VarianceShift)},
-			}}, nil
+			}
+			for _, n := range res.Inspect.Body.Notes {
+				rows = append(rows, [2]string{"reading", n})
+			}
+			return &Section{JSON: js, Figures: []Figure{f}, Cautions: sm.Cautions, Summary: rows}, nil
 		}},
 		{Key: "lag", Title: "Delay: mutual information and autocorrelation", Run: func() (*Section, error) {
 			if res.Lag == nil {

@@ -10,6 +10,7 @@ import (
 	"strconv"
 	"strings"
 	"unfold/figure"
+	"unfold/series"
 
 	"gonum.org/v1/plot"
 )
@@ -241,10 +242,10 @@ func writeSweepPage(w io.Writer, parameter string, labels []string, rows []Sweep
 	for _, r := range rows {
 		pr := sweepPageRow{Value: fmtParam(r.Value), Regime: r.Regime, Confidence: fmt3(r.Confidence),
 			Lambda: withInterval(r.LambdaMax, r.LambdaLo, r.LambdaHi), D2: withInterval(r.D2, r.D2Lo, r.D2Hi),
-			H: fmt3(r.EntropyRate), C: fmt3(r.Complexity), Status: r.Status, Path: r.Path, Note: r.Error}
+			H: fmt3(r.EntropyRate), C: fmt3(r.Complexity), Status: r.Status, Path: series.CleanText(r.Path), Note: series.CleanText(r.Error)}
 		for i := range labels {
 			if i < len(r.Labels) {
-				pr.Labels = append(pr.Labels, r.Labels[i])
+				pr.Labels = append(pr.Labels, series.CleanText(r.Labels[i]))
 			} else {
 				pr.Labels = append(pr.Labels, "")
 			}

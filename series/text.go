@@ -7,6 +7,8 @@ import (
 	"math"
 	"strconv"
 	"strings"
+
+	"unfold/internal/suggest"
 )
 
 // maxLine bounds the length of one text line; a longer "line" is taken as a sign that the
@@ -370,6 +372,15 @@ func columnList(names []string, ncol int) string {
 	return b.String()
 }
 
+// noColumn is the message for a column spec that names no column: with the header name
+// nearest to spec by edit distance ("did you mean"), when one is near, and the columns.
+func noColumn(spec string, names []string, ncol int) string {
+	if best := suggest.Closest(spec, names); best != "" {
+		return fmt.Sprintf("no column %q; did you mean %q? %s", spec, best, columnList(names, ncol))
+	}
+	return fmt.Sprintf("no column %q: %s", spec, columnList(names, ncol))
+}
+
 // resolveColumn finds a column by name (exact, then ignoring case and surrounding spaces) or by
 // 1-based index; it returns −1 when there is none.
 func resolveColumn(spec string, names []string, ncol int) int {
@@ -611,7 +622,7 @@ func readText(r io.Reader, path string, opt ReadOptions) (*Series, []string, err
 		tcol = resolveColumn(spec, names, ncol)
 		if tcol < 0 {
 			return nil, nil, &InputError{Path: path, Line: headerLine,
-				Msg: fmt.Sprintf("no time column %q: %s", spec, columnList(names, ncol))}
+				Msg: "no time column" + strings.TrimPrefix(noColumn(spec, names, ncol), "no column")}
 		}
 		if names != nil {
 			_, timeUnit = timeName(names[tcol])
@@ -660,7 +671,7 @@ func readText(r io.Reader, path string, opt ReadOptions) (*Series, []string, err
 		vcol = resolveColumn(spec, names, ncol)
 		if vcol < 0 {
 			return nil, nil, &InputError{Path: path, Line: headerLine,
-				Msg: fmt.Sprintf("no column %q: %s", spec, columnList(names, ncol))}
+				Msg: noColumn(spec, names, ncol)}
 		}
 		if vcol == tcol {
 			if opt.TimeColumn != "" {

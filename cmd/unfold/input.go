@@ -2,6 +2,7 @@ package main
 
 import (
 	"github.com/spf13/cobra"
+	"github.com/spf13/pflag"
 
 	"unfold/analysis"
 	"unfold/series"
@@ -11,11 +12,14 @@ import (
 type inputOptions struct {
 	read series.ReadOptions
 	prep series.Prep
+	// flags are the command's flags, to tell a value given from the default.
+	flags *pflag.FlagSet
 }
 
 // addInputFlags binds the shared input and preprocessing flags (DESIGN.md §3) to cmd.
 func addInputFlags(cmd *cobra.Command, o *inputOptions) {
 	f := cmd.Flags()
+	o.flags = f
 	f.StringVar(&o.read.Column, "column", "", "signal column: a header name or a 1-based index (default: the only non-time numeric column, else the first)")
 	f.StringVar(&o.read.TimeColumn, "time-column", "", "time column: a header name or a 1-based index (default: a column named t, time, seconds, year, …)")
 	f.Float64Var(&o.read.Dt, "dt", 0, "sampling interval in time units (default: from the time column or the WAV rate, else 1)")
@@ -34,6 +38,9 @@ func addInputFlags(cmd *cobra.Command, o *inputOptions) {
 // loadInput reads and preprocesses the signal named by path ("-" for standard input) and
 // returns it with the "input" object of the JSON output.
 func (a *app) loadInput(path string, o *inputOptions) (*series.Series, *inputInfo, error) {
+	if err := o.check(); err != nil {
+		return nil, nil, err
+	}
 	s, src, err := series.ReadFile(path, a.stdin, o.read)
 	if err != nil {
 		return nil, nil, err
@@ -48,4 +55,22 @@ func (a *app) loadInput(path string, o *inputOptions) (*series.Series, *inputInf
 // unitsOf is the "units" object of the JSON output of s.
 func unitsOf(s *series.Series) analysis.Units {
 	return analysis.Units{Time: s.TimeUnit, Signal: s.Unit}
+}
+
+// check validates the input flags before any reading (exit status 2 with the allowed range).
+func (o *inputOptions) check() error {
+	err := o.read.Check()
+	if err == nil && o.flags != nil && o.flags.Changed("dt") {
+		err = series.CheckDt(o.read.Dt)
+	}
+	if err == nil {
+		err = series.CheckChannel(o.read.Channel)
+	}
+	if err == nil {
+		err = series.CheckDecimate(o.prep.Decimate)
+	}
+	if err != nil {
+		return &usageError{err}
+	}
+	return nil
 }

@@ -73,6 +73,9 @@ func (a *app) runInspect(path string, o *inspectOptions) error {
 		{"stationary", fmt.Sprintf("%v (mean shift %.1f, variance shift %.1f standard errors; correlation time %.1f samples)",
 			sm.Stationarity.Stationary, sm.Stationarity.MeanShift, sm.Stationarity.VarianceShift, sm.Stationarity.CorrelationTime)},
 	}
+	for _, n := range res.Notes {
+		rows = append(rows, []string{"reading", n})
+	}
 	if err := a.table(rows); err != nil {
 		return err
 	}

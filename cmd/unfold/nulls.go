@@ -1,7 +1,6 @@
 package main
 
 import (
-	"encoding/json"
 	"fmt"
 	"os"
 	"path/filepath"
@@ -144,17 +143,11 @@ func (a *app) runNulls(path string, o *nullsOptions) error {
 		res.Surrogates = append(res.Surrogates, nullsFile{File: file, Iterations: sg.Iterations, SpectralError: sg.SpectralError, Converged: sg.Converged})
 	}
 	params := nullsParams{Column: s.Name, Method: m.String(), Count: o.count, MaxIter: o.maxIter, MatchEnds: o.matchEnds, Seed: a.global.Seed, Output: o.out}
-	summary, err := json.MarshalIndent(struct {
-		Command    string      `json:"command"`
-		Version    string      `json:"version"`
-		Input      *inputInfo  `json:"input"`
-		Parameters nullsParams `json:"parameters"`
-		nullsResult
-	}{"nulls", versionString(), in, params, res}, "", "  ")
+	summary, err := buildJSON("nulls", in, params, res) // non-finite numbers as null, with a caution
 	if err != nil {
 		return fmt.Errorf("nulls: %w", err)
 	}
-	if err := writeBytesFile(filepath.Join(o.out, "summary.json"), path, append(summary, '\n')); err != nil {
+	if err := writeBytesFile(filepath.Join(o.out, "summary.json"), path, summary); err != nil {
 		return fmt.Errorf("nulls: %w", err)
 	}
 	for _, c := range res.Cautions {

@@ -30,6 +30,8 @@ type reportOptions struct {
 	norm      string
 	azimuth   float64
 	elevation float64
+	// staging, when not nil, is the folder the page is written into after every stage.
+	staging *report.Staging
 }
 
 // reportParams are the "parameters" of result.json: the overrides as given (0 or -1 = chosen
@@ -138,17 +140,27 @@ func (a *app) runReport(cmd *cobra.Command, path string, args []string, o *repor
 	if fi, err := os.Stat(o.output); err == nil && !fi.IsDir() {
 		return usagef("report: -o %s is a file, not a directory", o.output)
 	}
+	protect := []string{}
+	if !o.demo && path != "-" {
+		protect = append(protect, path)
+	}
+	stg, err := report.StageDir(o.output, protect...)
+	if err != nil {
+		return &usageError{err}
+	}
+	defer stg.Abort()
 	s, in, title, err := a.loadReportInput(path, o)
 	if err != nil {
 		return err
 	}
-	a.notef("report: %s: %d samples, dt %s", title, s.Len(), fmtG(s.Dt))
-	res := a.runChain(cmd, args, path, title, s, in, o, true)
-	protect := []string{}
-	if !o.demo {
-		protect = append(protect, path)
+	if err := analysis.CheckEmbedding(s.Len(), o.lag, o.dim, o.theiler); err != nil {
+		return fmt.Errorf("report: %s: %w", title, err)
 	}
-	if _, err := res.WriteDir(o.output, report.WriteOptions{PNG: o.png, Protect: protect}); err != nil {
+	a.notef("report: %s: %d samples, dt %s", title, s.Len(), fmtG(s.Dt))
+	a.notef("report: the page fills in at %s; it moves to %s when the chain ends", stg.Page(), o.output)
+	o.staging = stg
+	res := a.runChain(cmd, args, path, title, s, in, o, true)
+	if _, err := stg.Commit(res, report.WriteOptions{PNG: o.png, Protect: protect}); err != nil {
 		return err
 	}
 	a.notef("report: wrote %s, %s and %s (%.1f s)", filepath.Join(o.output, "report.html"),

@@ -109,13 +109,21 @@ func (a *app) runChain(cmd *cobra.Command, args []string, path, title string, s 
 			a.notef("  %-9s %7.2f s", key, took.Seconds())
 		}
 	}
-	res, err := analysis.Run(context.Background(), s, opt)
-	if res == nil {
-		res = &analysis.Result{Stages: []analysis.StageRecord{{Key: "inspect", Status: analysis.StatusError, Error: err.Error()}}}
-	}
 	fig := figureOf(path, s)
 	if o.demo {
 		fig.Title = demo.Name
 	}
-	return report.Build(h, res, s, fig, report.View{Azimuth: o.azimuth, Elevation: o.elevation, Lag: o.lag})
+	view := report.View{Azimuth: o.azimuth, Elevation: o.elevation, Lag: o.lag}
+	if o.staging != nil {
+		opt.Partial = func(r *analysis.Result) {
+			if err := o.staging.WritePartial(h, r, s, fig, view, report.WriteOptions{}); err != nil {
+				a.notef("report: the page so far could not be written: %v", err)
+			}
+		}
+	}
+	res, err := analysis.Run(context.Background(), s, opt)
+	if res == nil {
+		res = &analysis.Result{Stages: []analysis.StageRecord{{Key: "inspect", Status: analysis.StatusError, Error: err.Error()}}}
+	}
+	return report.Build(h, res, s, fig, view)
 }

@@ -2,6 +2,8 @@ package main
 
 import (
 	"github.com/spf13/cobra"
+
+	"unfold/analysis"
 )
 
 // newRootCmd builds the command tree. Each command lives in a file of its own and is added
@@ -30,7 +32,15 @@ an answer (the message says why), 2 bad usage or bad input (the message says wha
 	pf.BoolVar(&a.global.JSON, "json", false, "print exactly one JSON object on stdout instead of a table")
 	pf.BoolVarP(&a.global.Quiet, "quiet", "q", false, "print no messages or progress on stderr")
 	pf.Uint64Var(&a.global.Seed, "seed", 1, "seed of every random step (recorded in JSON output)")
-	pf.IntVar(&a.global.Threads, "threads", 0, "worker goroutines for parallel work (0 = all cores)")
+	pf.IntVar(&a.global.Threads, "threads", 0, "worker goroutines for parallel work, at least 1 (default: all cores)")
+	root.PersistentPreRunE = func(cmd *cobra.Command, args []string) error {
+		if cmd.Flags().Changed("threads") {
+			if err := analysis.CheckThreads(a.global.Threads); err != nil {
+				return err
+			}
+		}
+		return checkAliases(cmd, args)
+	}
 
 	root.AddCommand(
 		newInspectCmd(a),
@@ -52,7 +62,6 @@ an answer (the message says why), 2 bad usage or bad input (the message says wha
 		newStatesCmd(a),
 		newSweepCmd(a),
 	)
-	root.PersistentPreRunE = checkAliases
 	deprecationsTo(root, a.stderr)
 	registerCompletions(root)
 	return root
