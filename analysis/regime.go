@@ -92,7 +92,7 @@ func (e *Env) Regime(path string, s *series.Series, o RegimeOptions, ev RegimeEv
 	an, err := regime.Analyze(s.Values, s.Dt, regime.Options{Embedding: c,
 		Surrogates: o.Surrogates, Seed: e.Seed, Lyapunov: ev.Lyapunov, NoLyapunov: o.NoLyapunov || ev.NoLyapunov,
 		Dimension: ev.Dimension, NoDimension: ev.NoDimension, Threads: e.threads(),
-		Progress: e.progress("surrogate tests")})
+		Progress: e.progress("regime: surrogate tests")})
 	if err != nil {
 		return nil, RegimeParams{}, RegimeResult{}, NoAnswer(fmt.Errorf("regime: %s: %w", path, err))
 	}
