@@ -49,7 +49,13 @@ type RegimeResult struct {
 	Rule       string                 `json:"rule"`
 	Evidence   map[string]regime.Item `json:"evidence"`
 	Tests      []*regime.RankTest     `json:"surrogate_tests"`
-	Cautions   []string               `json:"cautions"`
+	// SamplesUsed is the number of samples the surrogate tests ran on: a segment
+	// [SurrogateSegment[0], SurrogateSegment[1]) of the first regime.Options.MaxAnalysis
+	// (20 000) samples, trimmed for matching ends; a caution says so when it is fewer than
+	// the record's.
+	SamplesUsed      int      `json:"samples_used"`
+	SurrogateSegment [2]int   `json:"surrogate_segment"`
+	Cautions         []string `json:"cautions"`
 }
 
 // CheckRegime validates o.
@@ -111,5 +117,8 @@ func (e *Env) Regime(path string, s *series.Series, o RegimeOptions, ev RegimeEv
 	}
 	res := RegimeResult{Regime: v.Regime, Confidence: v.Confidence, Rule: v.Rule,
 		Evidence: v.Evidence, Tests: []*regime.RankTest{evd.Prediction, evd.Reversal}, Cautions: v.Cautions}
+	if set := an.Surrogates; set != nil {
+		res.SamplesUsed, res.SurrogateSegment = set.Length, [2]int{set.Start, set.Start + set.Length}
+	}
 	return an, p, res, nil
 }

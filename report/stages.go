@@ -225,6 +225,7 @@ func lyapunovStage(res *analysis.Result, title string) Stage {
 			{"embedding", fmt.Sprintf("lag %d samples (%s), dimension %d (%s), Theiler window %d samples (%s)",
 				p.Lag, p.LagMethod, p.Dim, p.DimMethod, p.Theiler, p.TheilerFrom)},
 			{"curve", fmt.Sprintf("%s, horizon %d steps (%s time units), %d reference points", p.Method, r.Horizon, g(float64(r.Horizon)*r.Dt), r.ReferencePoints)},
+			{"reference points", b.Sampling},
 		}
 		if b.LambdaMax != nil {
 			sum = append(sum,
@@ -282,6 +283,7 @@ func fractalStage(res *analysis.Result, title string) Stage {
 			{"Takens estimate", g(r.Takens)},
 			{"per dimension", perDim},
 			{"lag, Theiler window", fmt.Sprintf("%d samples (%s), %d samples (%s); %s norm", p.Lag, p.LagMethod, p.Theiler, p.TheilerBy, p.Norm)},
+			{"pairs counted", b.Sampling},
 		}}, nil
 	}}
 }
