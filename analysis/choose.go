@@ -28,7 +28,7 @@ func (e *Env) Choose(command, path string, x []float64, o embed.ChooseOptions) (
 	}
 	o.LagOptions.MI.Threads = e.threads()
 	o.DimOptions.Threads = e.threads()
-	o.DimOptions.Progress = e.progress("false neighbours")
+	o.DimOptions.Progress = e.progress(command + ": false neighbours")
 	c, err := embed.Choose(x, o)
 	if err != nil {
 		return nil, NoAnswer(fmt.Errorf("%s: %s: %w", command, path, err))

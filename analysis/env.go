@@ -25,6 +25,9 @@ type Env struct {
 	// Read and Prep are how the record was read and prepared, for the parameters.
 	Read series.ReadOptions
 	Prep series.Prep
+	// Indexes, when not nil, shares neighbour indexes between the stages of one run (see
+	// IndexCache); nil builds each index where it is needed.
+	Indexes *IndexCache
 }
 
 func (e *Env) threads() int {

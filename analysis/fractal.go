@@ -21,6 +21,10 @@ type FractalOptions struct {
 	Radii string
 	// Euclidean uses the Euclidean norm instead of the maximum norm.
 	Euclidean bool
+	// ReferencePoints is the number of sampled reference points of the correlation sums (0:
+	// dimension.DefaultReferencePoints); Exact counts all pairs instead (cost O(N²)).
+	ReferencePoints int
+	Exact           bool
 }
 
 // DefaultFractalOptions returns the defaults of `unfold fractal`.
@@ -70,6 +74,7 @@ type FractalParams struct {
 	TheilerBy string `json:"theiler_method"`
 	Norm      string `json:"norm"`
 	Radii     int    `json:"radii"`
+	Exact     bool   `json:"exact"`
 	Seed      uint64 `json:"seed"`
 }
 
@@ -98,7 +103,11 @@ type FractalResult struct {
 	Takens         *float64     `json:"takens"`
 	PerDimension   []FractalDim `json:"per_dimension"`
 	CorrelationSum []CsumPoint  `json:"correlation_sum"`
-	Cautions       []string     `json:"cautions"`
+	// ReferencePoints is the number of reference points the sums were counted from (all
+	// delay vectors when exact); Sampling says how, in words.
+	ReferencePoints int      `json:"reference_points"`
+	Sampling        string   `json:"sampling"`
+	Cautions        []string `json:"cautions"`
 }
 
 // FractalRun is what Fractal found, for the renderers (table, CSV, figure).
@@ -112,8 +121,8 @@ type FractalRun struct {
 // CheckFractal validates the flags of `fractal` (after --dim has been folded into
 // --max-dim) and parses the radii.
 func CheckFractal(o FractalOptions) ([]float64, error) {
-	if o.Lag < 0 || o.MaxDim < 1 || o.MaxDim > 30 {
-		return nil, Usagef("fractal: want --lag ≥ 0 and 1 ≤ --max-dim ≤ 30")
+	if o.Lag < 0 || o.MaxDim < 1 || o.MaxDim > 30 || o.ReferencePoints < 0 {
+		return nil, Usagef("fractal: want --lag ≥ 0, 1 ≤ --max-dim ≤ 30 and --reference-points ≥ 0")
 	}
 	return ParseRadii(o.Radii)
 }
@@ -148,7 +157,8 @@ func (e *Env) Fractal(path string, s *series.Series, o FractalOptions, c *embed.
 	lag, lagMethod, theiler, theilerFrom := c.Lag.Value, c.Lag.Rule, c.Theiler.Value, c.Theiler.Rule
 	cautions = append([]string{}, cautions...)
 	r, derr := dimension.CorrelationDimension(x, dimension.Options{Lag: lag, MaxDim: o.MaxDim, Theiler: theiler,
-		Radii: radii, Euclidean: o.Euclidean, Seed: e.Seed, Threads: e.threads(), Progress: e.progress("pair counts")})
+		Radii: radii, Euclidean: o.Euclidean, Seed: e.Seed, Threads: e.threads(), Progress: e.progress("fractal: pair counts"),
+		ReferencePoints: o.ReferencePoints, Exact: o.Exact, Index: e.Indexes.provider(x, lag, o.Euclidean)})
 	if r == nil {
 		return fail(nil, NoAnswer(fmt.Errorf("fractal: %s: %w", path, derr)))
 	}
@@ -158,7 +168,8 @@ func (e *Env) Fractal(path string, s *series.Series, o FractalOptions, c *embed.
 		return fail(run, NoAnswer(fmt.Errorf("fractal: %s: %w", path, derr)))
 	}
 	res := FractalResult{D2: r.D2, Interval: [2]float64{r.Lo, r.Hi}, ScalingRange: [2]float64{r.RLo, r.RHi},
-		Saturated: r.Saturated, Dimension: r.Dim, Takens: finitePtr(r.Takens), Cautions: cautions, CorrelationSum: []CsumPoint{}}
+		Saturated: r.Saturated, Dimension: r.Dim, Takens: finitePtr(r.Takens), Cautions: cautions, CorrelationSum: []CsumPoint{},
+		ReferencePoints: r.ReferencePoints, Sampling: r.Sampling}
 	for _, c := range r.Curves {
 		fd := FractalDim{Dimension: c.Dim}
 		if c.Fitted {
@@ -174,7 +185,7 @@ func (e *Env) Fractal(path string, s *series.Series, o FractalOptions, c *embed.
 		}
 	}
 	p := FractalParams{Column: s.Name, Lag: lag, LagMethod: lagMethod, MaxDim: r.MaxDim, Theiler: theiler,
-		TheilerBy: theilerFrom, Norm: r.Norm, Radii: len(r.Radii), Seed: e.Seed}
+		TheilerBy: theilerFrom, Norm: r.Norm, Radii: len(r.Radii), Exact: o.Exact, Seed: e.Seed}
 	return run, p, res, nil
 }
 

@@ -75,7 +75,7 @@ func (e *Env) EmbedLagOptions(o LagOptions) (embed.LagOptions, error) {
 		return embed.LagOptions{}, Usagef("lag: --max-lag and --bins must be ≥ 0, --k and --points ≥ 1, --z > 0")
 	}
 	return embed.LagOptions{MaxLag: o.MaxLag, Z: o.Z, MI: embed.MIOptions{Estimator: o.MI, Bins: o.Bins,
-		K: o.K, MaxPoints: o.Points, Threads: e.threads()}}, nil
+		K: o.K, MaxPoints: o.Points, Threads: e.threads(), Progress: e.progress("lag: mutual information")}}, nil
 }
 
 // Lag chooses the lag of s (embed.ChooseLag) and returns the choice with the JSON parameters

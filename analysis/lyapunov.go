@@ -28,6 +28,9 @@ type LyapunovOptions struct {
 	FitFrom, FitTo int
 	// Reps is the bootstrap resamples.
 	Reps int
+	// ReferencePoints is the number of reference points followed (0:
+	// lyapunov.DefaultReferencePoints).
+	ReferencePoints int
 	// Spectrum also estimates the whole spectrum from local linear maps, with Neighbors per
 	// fit and Evolve steps per map (0: automatic).
 	Spectrum          bool
@@ -101,6 +104,7 @@ type LyapunovResult struct {
 	Curves             []EpsCurveJSON    `json:"curves,omitempty"`
 	Divergence         []DivergencePoint `json:"divergence"`
 	References         int               `json:"reference_points"`
+	Sampling           string            `json:"sampling"`
 	Reason             string            `json:"reason,omitempty"`
 	RangeCheck         *RangeCheckJSON   `json:"range_check,omitempty"`
 	Spectrum           []float64         `json:"spectrum,omitempty"`
@@ -128,8 +132,8 @@ func CheckLyapunov(o LyapunovOptions) (lyapunov.Method, neighbors.Norm, error) {
 	if err != nil {
 		return 0, 0, err
 	}
-	if o.Lag < 0 || o.Dim < 0 || o.Horizon < 0 || o.MaxNeighbors < 1 || o.Reps < 2 || o.MaxDim < 1 || o.Neighbors < 0 || o.Evolve < 0 {
-		return 0, 0, Usagef("lyapunov: want --lag, --dim, --horizon, --neighbors, --evolve ≥ 0, --max-neighbors ≥ 1, --reps ≥ 2, --max-dim ≥ 1")
+	if o.Lag < 0 || o.Dim < 0 || o.Horizon < 0 || o.ReferencePoints < 0 || o.MaxNeighbors < 1 || o.Reps < 2 || o.MaxDim < 1 || o.Neighbors < 0 || o.Evolve < 0 {
+		return 0, 0, Usagef("lyapunov: want --lag, --dim, --horizon, --reference-points, --neighbors, --evolve ≥ 0, --max-neighbors ≥ 1, --reps ≥ 2, --max-dim ≥ 1")
 	}
 	if err := CheckEmbedding(0, o.Lag, o.Dim, o.Theiler); err != nil {
 		return 0, 0, fmt.Errorf("lyapunov: %w", err)
@@ -182,7 +186,15 @@ func (e *Env) Lyapunov(path string, s *series.Series, o LyapunovOptions, c *embe
 	lagMethod, dimMethod := c.Lag.Rule, c.Dim.Rule
 	opt := lyapunov.Options{Lag: lag, Dim: dim, Theiler: theiler, Method: method, Norm: norm,
 		Horizon: o.Horizon, Eps: o.Eps, MaxNeighbors: o.MaxNeighbors, Dt: s.Dt, Reps: o.Reps,
-		Seed: e.Seed, Threads: e.threads(), Progress: e.progress("divergence")}
+		Seed: e.Seed, Threads: e.threads(), Progress: e.progress("lyapunov: divergence"),
+		ReferencePoints: o.ReferencePoints}
+	var ix *neighbors.Index
+	if e.Indexes != nil || o.Spectrum {
+		// One index for the curves, the spectrum and the other stages of the run that embed
+		// alike; when it cannot be built, Divergence says why.
+		ix, _ = e.Indexes.Get(x, lag, dim, norm)
+	}
+	opt.Index = ix
 	if o.FitTo >= 0 {
 		opt.FitFrom, opt.FitTo = o.FitFrom, o.FitTo
 	}
@@ -196,12 +208,12 @@ func (e *Env) Lyapunov(path string, s *series.Series, o LyapunovOptions, c *embe
 	var sp *lyapunov.SpectrumResult
 	if o.Spectrum {
 		sp, err = lyapunov.Spectrum(x, lyapunov.SpectrumOptions{Lag: lag, Dim: dim, Theiler: theiler, Norm: norm,
-			Neighbors: o.Neighbors, Evolve: o.Evolve, Dt: s.Dt, Threads: e.threads(), Progress: e.progress("local maps")})
+			Neighbors: o.Neighbors, Evolve: o.Evolve, Dt: s.Dt, Threads: e.threads(), Progress: e.progress("lyapunov: local maps"), Index: ix})
 		if err != nil {
 			return fail(NoAnswer(fmt.Errorf("lyapunov: %s: spectrum: %w", path, err)))
 		}
 	}
-	res := LyapunovResult{References: r.ReferencePoints, Cautions: append(append([]string{}, cautions...), r.Cautions...)}
+	res := LyapunovResult{References: r.ReferencePoints, Sampling: lyapunovSampling(r), Cautions: append(append([]string{}, cautions...), r.Cautions...)}
 	ch := r.Curves[r.Chosen]
 	for k, v := range ch.MeanLog {
 		if !math.IsNaN(v) {
@@ -273,4 +285,14 @@ func (e *Env) Lyapunov(path string, s *series.Series, o LyapunovOptions, c *embe
 		}
 	}
 	return run, p, res, noFit
+}
+
+// lyapunovSampling says in words how the reference points of r were chosen.
+func lyapunovSampling(r *lyapunov.Result) string {
+	adm := r.Vectors - r.Horizon
+	if r.ReferencePoints >= adm {
+		return fmt.Sprintf("exact: every one of the %d delay vectors that can be followed for %d steps is a reference point", adm, r.Horizon)
+	}
+	return fmt.Sprintf("sampled: %d reference points (one drawn at random from each of %d equal stretches of the record, seed %d) out of %d delay vectors that can be followed for %d steps; their neighbours sought among all of these",
+		r.ReferencePoints, r.ReferencePoints, r.Seed, adm, r.Horizon)
 }

@@ -55,7 +55,13 @@ type RegimeResult struct {
 	Unused []string `json:"unused"`
 	// DominantPeriod is the period of the strongest cycle in time units (null when none).
 	DominantPeriod *float64 `json:"dominant_period"`
-	Cautions       []string `json:"cautions"`
+	// SamplesUsed is the number of samples the surrogate tests ran on: a segment
+	// [SurrogateSegment[0], SurrogateSegment[1]) of the first regime.Options.MaxAnalysis
+	// (20 000) samples, trimmed for matching ends; a caution says so when it is fewer than
+	// the record's.
+	SamplesUsed      int      `json:"samples_used"`
+	SurrogateSegment [2]int   `json:"surrogate_segment"`
+	Cautions         []string `json:"cautions"`
 }
 
 // CheckRegime validates o.
@@ -98,7 +104,7 @@ func (e *Env) Regime(path string, s *series.Series, o RegimeOptions, ev RegimeEv
 	an, err := regime.Analyze(s.Values, s.Dt, regime.Options{Embedding: c,
 		Surrogates: o.Surrogates, Seed: e.Seed, Lyapunov: ev.Lyapunov, NoLyapunov: o.NoLyapunov || ev.NoLyapunov,
 		Dimension: ev.Dimension, NoDimension: ev.NoDimension, Threads: e.threads(),
-		Progress: e.progress("surrogate tests")})
+		Progress: e.progress("regime: surrogate tests")})
 	if err != nil {
 		return nil, RegimeParams{}, RegimeResult{}, NoAnswer(fmt.Errorf("regime: %s: %w", path, err))
 	}
@@ -122,6 +128,9 @@ func (e *Env) Regime(path string, s *series.Series, o RegimeOptions, ev RegimeEv
 	}
 	if res.Unused == nil {
 		res.Unused = []string{}
+	}
+	if set := an.Surrogates; set != nil {
+		res.SamplesUsed, res.SurrogateSegment = set.Length, [2]int{set.Start, set.Start + set.Length}
 	}
 	return an, p, res, nil
 }

@@ -358,6 +358,7 @@ func Run(ctx context.Context, s *series.Series, opt Options) (*Result, error) {
 			}
 			lo := DefaultLyapunovOptions()
 			lo.Norm, lo.MaxDim = norm, maxDim
+			e.Indexes = shareIndexes(s.Values, c, norm, DefaultFractalOptions()) // one index for lyapunov and fractal when they embed alike
 			run, p, b, noFit := e.Lyapunov(path, s, lo, c, nil)
 			if run == nil {
 				return noFit

@@ -95,6 +95,11 @@ type Options struct {
 	ReferencePoints int
 	// Exact counts all pairs (cost O(N²) per dimension) instead of sampling reference points.
 	Exact bool
+	// Index, when not nil, returns the neighbour index of the delay vectors of x at dimension
+	// m (lag Lag, the norm of Euclidean), for example one already built by another estimator
+	// on the same record; nil builds it with neighbors.FromEmbedding. The result is the same
+	// either way; an index of the wrong shape or norm is an error.
+	Index func(m int) (*neighbors.Index, error)
 }
 
 // DefaultReferencePoints is the default number of sampled reference points: 4000 against all
@@ -245,7 +250,7 @@ func CorrelationDimension(x []float64, opt Options) (*Result, error) {
 		logr[k] = math.Log(r)
 	}
 	for m := 1; m <= opt.MaxDim; m++ {
-		ix, err := neighbors.FromEmbedding(x, opt.Lag, m, norm)
+		ix, err := embedIndex(x, opt, m, norm)
 		if err != nil {
 			return nil, fmt.Errorf("correlation dimension: m = %d: %w", m, err)
 		}
@@ -287,6 +292,22 @@ func CorrelationDimension(x []float64, opt Options) (*Result, error) {
 		return res, err
 	}
 	return res, nil
+}
+
+// embedIndex returns the index of the delay vectors of x at dimension m: opt.Index's when it is
+// set (checked against the shape and norm wanted), else a new one.
+func embedIndex(x []float64, opt Options, m int, norm neighbors.Norm) (*neighbors.Index, error) {
+	if opt.Index == nil {
+		return neighbors.FromEmbedding(x, opt.Lag, m, norm)
+	}
+	ix, err := opt.Index(m)
+	if err != nil {
+		return nil, err
+	}
+	if ix == nil || ix.Dim() != m || ix.Norm() != norm || ix.Len() != len(x)-(m-1)*opt.Lag {
+		return nil, fmt.Errorf("%w: the index given is not of the %d-dimensional delay vectors with lag %d (%s norm)", neighbors.ErrInput, m, opt.Lag, norm)
+	}
+	return ix, nil
 }
 
 // sampleReferences returns r reference points among n delay vectors: the record is cut into r

@@ -37,6 +37,9 @@ type MIOptions struct {
 	// neighbour search and counts; 0 or negative excludes only the point itself (but see
 	// LagOptions for the default of ChooseLag).
 	Theiler int
+	// Progress, when not nil, is called with (lags done, lags in all) as the histogram
+	// estimator finishes each lag, from one goroutine at a time.
+	Progress func(done, total int)
 	// Blocks is the number of contiguous blocks used for the standard error; 0 means 8, or
 	// as many blocks of 16 pairs as the record allows (at least 2) when it is shorter.
 	Blocks int
@@ -200,6 +203,8 @@ func histogramMI(x []float64, maxLag int, opt MIOptions) (*MICurve, error) {
 	threads = min(threads, maxLag+1)
 	var wg sync.WaitGroup
 	var g workers.Guard
+	var mu sync.Mutex
+	done := 0
 	for w := 0; w < threads; w++ {
 		wg.Add(1)
 		go func(w int) {
@@ -217,6 +222,12 @@ func histogramMI(x []float64, maxLag int, opt MIOptions) (*MICurve, error) {
 						blockSE = 0
 					}
 					c.Err[k] = math.Hypot(blockSE, c.GridErr[k])
+					if opt.Progress != nil {
+						mu.Lock()
+						done++
+						opt.Progress(done, maxLag+1)
+						mu.Unlock()
+					}
 				}
 			})
 		}(w)

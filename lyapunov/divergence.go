@@ -96,6 +96,11 @@ type Options struct {
 	// ReferencePoints equal stretches of the record; their neighbours are sought among all
 	// admissible points. Result.ReferencePoints states the number used.
 	ReferencePoints int
+	// Index, when not nil, is a prebuilt neighbour index of the delay vectors of x with Lag,
+	// Dim and Norm (neighbors.FromEmbedding), for example one shared with another estimator on
+	// the same record; the result is the same as with the index Divergence would build. An
+	// index of another shape or norm is an error.
+	Index *neighbors.Index
 }
 
 // DefaultReferencePoints is the default number of reference points: 4000 averaged
@@ -235,9 +240,13 @@ func Divergence(x []float64, opt Options) (*Result, error) {
 	if err != nil {
 		return nil, err
 	}
-	ix, err := neighbors.FromEmbedding(x, o.Lag, o.Dim, o.Norm)
-	if err != nil {
-		return nil, fmt.Errorf("lyapunov: %w", err)
+	ix := o.Index
+	if ix == nil {
+		if ix, err = neighbors.FromEmbedding(x, o.Lag, o.Dim, o.Norm); err != nil {
+			return nil, fmt.Errorf("lyapunov: %w", err)
+		}
+	} else if ix.Dim() != o.Dim || ix.Norm() != o.Norm || ix.Len() != len(x)-(o.Dim-1)*o.Lag {
+		return nil, fmt.Errorf("lyapunov: %w: the index given is not of the %d-dimensional delay vectors with lag %d (%s norm)", neighbors.ErrInput, o.Dim, o.Lag, o.Norm)
 	}
 	nv := ix.Len()
 	nref := nv - o.Horizon

@@ -36,6 +36,9 @@ type SpectrumOptions struct {
 	// not nil, is called with (maps fitted, total).
 	Threads  int
 	Progress func(done, total int)
+	// Index, when not nil, is a prebuilt neighbour index of the delay vectors of x with Lag,
+	// Dim and Norm (as for Options.Index); the result is the same as without it.
+	Index *neighbors.Index
 }
 
 // SpectrumResult is a Lyapunov spectrum estimated from data.
@@ -101,9 +104,14 @@ func Spectrum(x []float64, opt SpectrumOptions) (*SpectrumResult, error) {
 	case !(o.Dt > 0) || math.IsInf(o.Dt, 0):
 		return nil, fmt.Errorf("lyapunov spectrum: sampling interval %g must be positive", o.Dt)
 	}
-	ix, err := neighbors.FromEmbedding(x, o.Lag, m, o.Norm)
-	if err != nil {
-		return nil, fmt.Errorf("lyapunov spectrum: %w", err)
+	ix := o.Index
+	if ix == nil {
+		var err error
+		if ix, err = neighbors.FromEmbedding(x, o.Lag, m, o.Norm); err != nil {
+			return nil, fmt.Errorf("lyapunov spectrum: %w", err)
+		}
+	} else if ix.Dim() != m || ix.Norm() != o.Norm || ix.Len() != len(x)-(m-1)*o.Lag {
+		return nil, fmt.Errorf("lyapunov spectrum: %w: the index given is not of the %d-dimensional delay vectors with lag %d (%s norm)", neighbors.ErrInput, m, o.Lag, o.Norm)
 	}
 	nv := ix.Len()
 	hi := nv - o.Evolve // vectors that have an image

@@ -1,6 +1,9 @@
 package neighbors
 
-import "math"
+import (
+	"math"
+	"math/bits"
+)
 
 // allNN1 is AllKNN for k = 1 with the queries of one leaf searched together: the points of a
 // leaf bucket are close to each other, so one traversal of the tree serves all of them. A
@@ -54,6 +57,10 @@ type nn1Batch struct {
 	best      [leafSize]float64
 	bestIdx   [leafSize]int32
 	worst     float64 // largest of best
+	// tick, checks and pruned measure how well the per-query pruning pays (see filter).
+	tick, checks, pruned uint64
+	// winLo, winHi bound the indices inside the Theiler window of every query of the leaf.
+	winLo, winHi int
 }
 
 func (b *nn1Batch) leaf(id int32, idx []int32, dist []float64) {
@@ -64,8 +71,10 @@ func (b *nn1Batch) leaf(id int32, idx []int32, dist []float64) {
 		b.best[c], b.bestIdx[c] = math.Inf(1), -1
 	}
 	b.worst = math.Inf(1)
-	b.scan(id)
-	b.visit(0)
+	b.winLo, b.winHi = int(nd.maxIdx)-b.w, int(nd.minIdx)+b.w
+	all := uint64(1)<<(b.qe-b.qs) - 1
+	b.scan(id, all)
+	b.visit(0, all)
 	for c := range b.qe - b.qs {
 		i := ix.perm[b.qs+c]
 		if b.bestIdx[c] < 0 {
@@ -97,14 +106,17 @@ func (b *nn1Batch) boxGap(id int32) float64 {
 	return g
 }
 
-func (b *nn1Batch) visit(id int32) {
+func (b *nn1Batch) visit(id int32, mask uint64) {
 	nd := &b.ix.nodes[id]
 	if int(nd.maxIdx) < b.lo || int(nd.minIdx) >= b.hi {
 		return
 	}
+	if int(nd.minIdx) >= b.winLo && int(nd.maxIdx) <= b.winHi {
+		return // every point is inside the Theiler window of every query
+	}
 	if nd.left < 0 {
 		if id != b.qid {
-			b.scan(id)
+			b.scan(id, mask)
 		}
 		return
 	}
@@ -114,15 +126,88 @@ func (b *nn1Batch) visit(id int32) {
 		first, second, gf, gs = second, first, gr, gl
 	}
 	if gf <= b.worst {
-		b.visit(first)
+		if m := b.filter(first, mask); m != 0 {
+			b.visit(first, m)
+		}
 	}
 	if gs <= b.worst {
-		b.visit(second)
+		if m := b.filter(second, mask); m != 0 {
+			b.visit(second, m)
+		}
 	}
 }
 
-// scan compares every query of the batch with the points of leaf id.
-func (b *nn1Batch) scan(id int32) {
+// filter returns the queries of mask that node id can still serve (active) when the
+// per-query pruning has been paying on this worker's recent nodes — more than one query in
+// pruneRate dropped — and on every sampleEvery-th node to keep measuring; else mask
+// unchanged (the leaf box prunes as well, and scan checks each query's own distance to a
+// leaf). Clustered queries (low-dimensional attractors) skip the per-query work; spread ones
+// (noisy, high-dimensional records) get it. The result is the same either way.
+func (b *nn1Batch) filter(id int32, mask uint64) uint64 {
+	b.tick++
+	if b.tick%sampleEvery != 0 && b.pruned*pruneRate <= b.checks {
+		return mask
+	}
+	out := b.active(id, mask)
+	b.checks += uint64(bits.OnesCount64(mask))
+	b.pruned += uint64(bits.OnesCount64(mask &^ out))
+	if b.checks > 1<<16 {
+		b.checks, b.pruned = b.checks/2, b.pruned/2
+	}
+	return out
+}
+
+// sampleEvery and pruneRate tune filter. Measured (single thread, same run, busy machine) on
+// 2·10^5 Lorenz samples (lag 11, window 20) and the 108,000-sample ECG (lag 165, window 358),
+// m = 3…10: the leaf-batched search takes 0.45–0.8 of the per-query search's time on the
+// former (as before) and 1.05–1.5 on the latter, where the leaf box alone took 2.5–4 times.
+const (
+	sampleEvery = 16
+	pruneRate   = 3
+)
+
+// active returns the queries of mask that node id can still serve: those whose own distance
+// to the node's box does not exceed their current nearest and that have a point of the node
+// outside their Theiler window. The queries of one leaf are close in a low-dimensional
+// attractor, and the leaf box alone prunes well; when they are spread (noisy, high-dimensional
+// records) each query prunes for itself, so no query searches more of the tree than it would
+// alone.
+func (b *nn1Batch) active(id int32, mask uint64) uint64 {
+	ix := b.ix
+	nd := &ix.nodes[id]
+	dim := ix.dim
+	box := ix.box[int(id)*2*dim : int(id)*2*dim+2*dim]
+	bl, bh := box[:dim], box[dim:]
+	euclid := ix.norm == Euclidean
+	lo, hi := int(nd.minIdx), int(nd.maxIdx)
+	out := mask
+	for m := mask; m != 0; m &= m - 1 {
+		c := bits.TrailingZeros64(m)
+		p := b.qs + c
+		if i := int(ix.perm[p]); lo >= i-b.w && hi <= i+b.w {
+			out &^= 1 << c
+			continue
+		}
+		q := ix.pts[p*dim : p*dim+dim]
+		var g float64
+		for d, v := range q {
+			t := fmax(fmax(bl[d]-v, v-bh[d]), 0)
+			if euclid {
+				g += float64(t * t)
+			} else {
+				g = fmax(g, t)
+			}
+		}
+		if g > b.best[c] {
+			out &^= 1 << c
+		}
+	}
+	return out
+}
+
+// scan compares the queries of mask with the points of leaf id (active has checked their
+// distance to the leaf's box).
+func (b *nn1Batch) scan(id int32, mask uint64) {
 	ix := b.ix
 	nd := &ix.nodes[id]
 	dim := ix.dim
@@ -134,7 +219,8 @@ func (b *nn1Batch) scan(id int32) {
 	bl, bh := box[:dim], box[dim:2*dim]
 	lo, span := b.lo, uint(b.hi-b.lo)
 	changed := false
-	for c := range b.qe - b.qs {
+	for m := mask; m != 0; m &= m - 1 {
+		c := bits.TrailingZeros64(m)
 		p := b.qs + c
 		q := ix.pts[p*dim : p*dim+dim]
 		i := int(ix.perm[p])

@@ -273,6 +273,7 @@ func lyapunovStage(res *analysis.Result, fig figure.Record) Stage {
 		sum := [][2]string{
 			{"embedding", fmt.Sprintf("lag %d samples, dimension %d, Theiler window %d samples", p.Lag, p.Dim, p.Theiler)},
 			{"curve", fmt.Sprintf("%s, horizon %d steps (%s %s), %d reference points", p.Method, r.Horizon, g(float64(r.Horizon)*r.Dt), timeUnits(fig.TimeUnit), r.ReferencePoints)},
+			{"reference points", b.Sampling},
 		}
 		if b.LambdaMax != nil {
 			sum = append(sum,
@@ -343,6 +344,7 @@ func fractalStage(res *analysis.Result, fg figure.Record) Stage {
 			{"Takens estimate", sig3(r.Takens)},
 			{"per dimension", perDim},
 			{"lag, Theiler window", fmt.Sprintf("%d samples, %d samples; %s norm", p.Lag, p.Theiler, p.Norm)},
+			{"pairs counted", b.Sampling},
 		}}, nil
 	}}
 }

@@ -46,7 +46,11 @@ where E1 saturates (E1 > 0.9 and changing by less than 5 % to d+1), whichever is
 rule is printed ("method" in JSON). E2 within 0.1 of 1 for every d is reported as "consistent with
 noise". The lag, when not given, is chosen as 'unfold lag' does (histogram estimator); the Theiler
 window, when not given, is the 1/e decay time of the autocorrelation. Exit status 1 when no
-dimension up to --max-dim qualifies.`,
+dimension up to --max-dim qualifies.
+
+Cost as a function of N: per dimension m ≤ --max-dim a kd-tree, O(N log N · m), and one
+nearest-neighbour search per vector (O(log N) on low-dimensional attractors): about
+O(max-dim · N log N) in all; memory O(N · m), one dimension at a time.`,
 		Example: `  # Lorenz x sampled at dt = 0.01: lag chosen automatically, dimensions 1 … 10
   unfold dim lorenz.csv
   # a given lag and Theiler window, JSON and the figure

@@ -44,7 +44,10 @@ oblique view of (x(t), x(t+τ), x(t+2τ)) rotated by --azimuth and --elevation; 
 --density-above vectors are drawn as points, more as a density image (log10 of the count per
 cell). --stp draws the space–time separation plot (Provenzale et al. 1992): quantiles of the
 distance between vectors against their separation in time, with the Theiler window marked;
-temporal correlation dominates until the curves stop rising.`,
+temporal correlation dominates until the curves stop rising.
+
+Cost as a function of N: O(N · m) time and memory for the vectors; --stp uses at most 50 000
+pairs per separation, whatever N.`,
 		Example: `  # choose lag and dimension, write the vectors and draw the picture
   unfold embed lorenz.csv -o vectors.npy --plot attractor.png
   # a given lag and dimension, CSV output, a different view

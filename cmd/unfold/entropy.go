@@ -42,7 +42,10 @@ With --permutation D it reads a numeric signal instead and reports the permutati
 order D (Bandt & Pompe 2002): the entropy of the ordinal patterns of D samples, in bits,
 normalised by log2(D!), and its Jensen–Shannon statistical complexity (Rosso et al. 2007) with
 the smallest and largest complexity possible at that entropy (Martin, Plastino & Rosso 2006);
---plot draws that plane with the record's point.`,
+--plot draws that plane with the record's point.
+
+Cost as a function of the stream length N: O(N · L) for the block counts up to length L, and
+O(N) for the Lempel–Ziv phrases; memory O(min(N, K^L)) for the distinct blocks.`,
 		Example: `  unfold symbols --alphabet 2 logistic.csv -o logistic.sym
   unfold entropy logistic.sym
   unfold entropy --json --max-length 12 logistic.sym

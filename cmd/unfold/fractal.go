@@ -22,6 +22,8 @@ type fractalOptions struct {
 	theiler   int
 	radii     string
 	euclidean bool
+	refPoints int
+	exact     bool
 	csv       string
 	plot      string
 }
@@ -42,7 +44,13 @@ exceeds 2·log10(N) (Eckmann & Ruelle 1992).
 
 When --lag or --theiler are not given they are chosen as 'unfold lag' does (first significant
 minimum of the mutual information; 1/e decay time of the autocorrelation) and printed. Distances
-use the maximum norm unless --norm euclidean. Radii are in signal units.`,
+use the maximum norm unless --norm euclidean. Radii are in signal units.
+
+Cost as a function of N: per dimension a kd-tree, O(N log N · m), and the pairs of a fixed
+number of reference points R (--reference-points, default 4000, drawn with --seed) with all N
+partners, each radius stopping once it has counted enough pairs: about O(max-dim · N log N);
+memory O(N · m). --exact counts all pairs instead, O(N²) per dimension (minutes at N = 10^5).
+The JSON states "reference_points" and "sampling".`,
 		Example: `  # Hénon data, lag 1, dimensions 1…5, Theiler window 2
   unfold simulate henon --n 10000 -o henon.csv
   unfold fractal --column x --lag 1 --max-dim 5 --theiler 2 henon.csv
@@ -68,6 +76,8 @@ func addFractalFlags(f *pflag.FlagSet, o *fractalOptions) {
 	f.StringVar(&o.radii, "radii", d.Radii, "radii in signal units: a comma list (0.01,0.02,…) or lo:hi:count log-spaced (default: 40 radii from 10^-3.5 of the range up to the range)")
 	o.euclidean = d.Euclidean
 	normFlag(f, &o.euclidean, "distance between delay vectors: euclidean or max")
+	f.IntVar(&o.refPoints, "reference-points", d.ReferencePoints, "reference points whose pairs with all partners are counted (default "+strconv.Itoa(dimension.DefaultReferencePoints)+"; all points when the record has fewer)")
+	f.BoolVar(&o.exact, "exact", d.Exact, "count all pairs instead of sampled reference points (cost O(N²) per dimension)")
 	f.StringVar(&o.csv, "csv", "", "write the correlation sums (dimension, r, c, pairs, local_slope) to this CSV file")
 	f.StringVar(&o.plot, "plot", "", "draw the local slopes d log C / d log r against r for every m (.png or .svg)")
 }
@@ -75,7 +85,8 @@ func addFractalFlags(f *pflag.FlagSet, o *fractalOptions) {
 type fractalRun = analysis.FractalRun
 
 func (o *fractalOptions) options() analysis.FractalOptions {
-	return analysis.FractalOptions{Lag: o.lag, Theiler: o.theiler, MaxDim: o.maxDim, Radii: o.radii, Euclidean: o.euclidean}
+	return analysis.FractalOptions{Lag: o.lag, Theiler: o.theiler, MaxDim: o.maxDim, Radii: o.radii, Euclidean: o.euclidean,
+		ReferencePoints: o.refPoints, Exact: o.exact}
 }
 
 func (a *app) runFractal(path string, o *fractalOptions) error {
@@ -137,6 +148,7 @@ func (a *app) runFractal(path string, o *fractalOptions) error {
 		{"D2", fmt.Sprintf("%s [%s, %s] at m = %d, saturated %v", g(r.D2), g(r.Lo), g(r.Hi), r.Dim, r.Saturated)},
 		{"scaling range", fmt.Sprintf("r = %s … %s", g(r.RLo), g(r.RHi))},
 		{"Takens estimate", g(r.Takens)},
+		{"pairs counted", r.Sampling},
 	}
 	for _, c := range r.Curves {
 		v := "no scaling range"

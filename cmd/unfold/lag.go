@@ -45,7 +45,11 @@ The rule used is printed ("method" in JSON). The estimator is --mi hist (equipro
 bin count from N: round(N^(1/3)), with the independence bias (B−1)²/2N) or --mi ksg (the
 k-nearest-neighbour estimator of Kraskov, Stögbauer & Grassberger 2004, on at most --points pairs,
 leaving out pairs closer in time than the autocorrelation's 1/e decay). Information is in bits.
-The suggested Theiler window (the 1/e decay time of the autocorrelation) is printed as well.`,
+The suggested Theiler window (the 1/e decay time of the autocorrelation) is printed as well.
+
+Cost as a function of the record length N: O(N log N) for the equiprobable bins and the
+autocorrelation, plus O(N) per lag scanned (--mi ksg: O(P log P) per lag on at most --points
+pairs P, whatever N); memory O(N).`,
 		Example: `  # a Lorenz signal sampled at dt = 0.01: the lag and the curves as a table
   unfold simulate lorenz --n 50000 -o lorenz.csv
   unfold lag lorenz.csv

@@ -27,6 +27,7 @@ type lyapunovOptions struct {
 	fitFrom      int
 	fitTo        int
 	reps         int
+	refPoints    int
 	spectrum     bool
 	neighbors    int
 	evolve       int
@@ -61,7 +62,13 @@ do (mutual information; false neighbours / Cao; the 1/e decay time of the autoco
 printed. --spectrum adds the spectrum from local linear maps fitted by least squares with QR
 re-orthonormalisation (Eckmann et al. 1986; Sano & Sawada 1985) and its Kaplan–Yorke dimension.
 
-Exit status 1 when no range of the curve is linear (say --fit-from/--fit-to to fit anyway).`,
+Exit status 1 when no range of the curve is linear (say --fit-from/--fit-to to fit anyway).
+
+Cost as a function of N: a kd-tree over the delay vectors, O(N log N · m), then a fixed number
+of reference points R (--reference-points, default 4000, one drawn at random from each of R
+equal stretches of the record with --seed) searched for neighbours among all vectors, O(R log N),
+and followed for the horizon, O(R · horizon · max-neighbors · m): about linear in N; memory
+O(N · m). The JSON states "reference_points" and "sampling".`,
 		Example: `  # Lorenz x at dt = 0.01 (synthetic): lag, dimension and Theiler window chosen automatically
   unfold simulate lorenz --n 20000 -o lorenz.csv
   unfold lyapunov --column x lorenz.csv
@@ -90,12 +97,13 @@ func addLyapunovFlags(f *pflag.FlagSet, o *lyapunovOptions) {
 	f.IntVar(&o.theiler, "theiler", d.Theiler, "Theiler window in samples (default: 1/e decay time of the autocorrelation; 0 excludes only the point itself)")
 	f.StringVar(&o.method, "method", d.Method, "divergence curve: kantz or rosenstein")
 	f.StringVar(&o.norm, "norm", d.Norm, "distance between delay vectors: euclidean or max")
-	f.IntVar(&o.horizon, "horizon", d.Horizon, "steps each pair is followed (default 10·lag·(dim−1), clamped to 30…500)")
+	f.IntVar(&o.horizon, "horizon", d.Horizon, "steps each pair is followed (default 10·lag·(dim−1) clamped to 30…500, and at most a quarter of the delay vectors)")
 	f.Float64SliceVar(&o.eps, "eps", d.Eps, "Kantz radii in signal units, comma-separated ascending (default 2, 4, 8, 16 × the median nearest-neighbour distance)")
 	f.IntVar(&o.maxNeighbors, "max-neighbors", d.MaxNeighbors, "Kantz: at most this many nearest neighbours within ε")
 	f.IntVar(&o.fitFrom, "fit-from", d.FitFrom, "first step of the fit range (with --fit-to; default automatic)")
 	f.IntVar(&o.fitTo, "fit-to", d.FitTo, "last step of the fit range (with --fit-from; default automatic)")
 	f.IntVar(&o.reps, "reps", d.Reps, "bootstrap resamples for the interval")
+	f.IntVar(&o.refPoints, "reference-points", d.ReferencePoints, "reference points followed, one drawn at random from each of as many equal stretches of the record (default "+strconv.Itoa(lyapunov.DefaultReferencePoints)+"; all admissible points when fewer)")
 	f.BoolVar(&o.spectrum, "spectrum", d.Spectrum, "also estimate the whole spectrum from local linear maps, and the Kaplan–Yorke dimension")
 	f.IntVar(&o.neighbors, "neighbors", d.Neighbors, "--spectrum: neighbours per local fit (default max(5·dim, 20))")
 	f.IntVar(&o.evolve, "evolve", d.Evolve, "--spectrum: steps spanned by each local map (default the lag)")
@@ -108,7 +116,7 @@ type lyapunovRun = analysis.LyapunovRun
 func (o *lyapunovOptions) options() analysis.LyapunovOptions {
 	return analysis.LyapunovOptions{Lag: o.lag, Dim: o.dim, MaxDim: o.maxDim, Theiler: o.theiler, Method: o.method,
 		Norm: o.norm, Horizon: o.horizon, Eps: o.eps, MaxNeighbors: o.maxNeighbors, FitFrom: o.fitFrom, FitTo: o.fitTo,
-		Reps: o.reps, Spectrum: o.spectrum, Neighbors: o.neighbors, Evolve: o.evolve}
+		Reps: o.reps, ReferencePoints: o.refPoints, Spectrum: o.spectrum, Neighbors: o.neighbors, Evolve: o.evolve}
 }
 
 func (a *app) runLyapunov(path string, o *lyapunovOptions) error {

@@ -16,6 +16,7 @@ func (a *app) lyapunovTable(r *lyapunov.Result, sp *lyapunov.SpectrumResult, res
 		{"embedding", fmt.Sprintf("lag %d samples (%s), dimension %d (%s), Theiler window %d samples (%s), %s norm",
 			r.Lag, lagMethod, r.Dim, dimMethod, r.Theiler, theilerFrom, r.Norm)},
 		{"curve", fmt.Sprintf("%s, horizon %d steps (%s time units), %d reference points", r.Method, r.Horizon, g(float64(r.Horizon)*r.Dt), r.ReferencePoints)},
+		{"reference points", res.Sampling},
 	}
 	if r.Method == lyapunov.Kantz {
 		ch := r.Curves[r.Chosen]

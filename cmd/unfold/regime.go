@@ -58,7 +58,11 @@ saturation, and Cao's E2 — and decides the regime.
 The lag, dimension and Theiler window are chosen as 'unfold lag' and 'unfold dim' do unless
 given, and printed. The embedding choices, λ1 and the surrogate tests use at most the first
 20 000 samples, D2 the first 10 000; the spectrum and the 0-1 test use the whole record (the 0-1 test at most 20 000
-samples after subsampling).`,
+samples after subsampling).
+
+Cost as a function of N: the spectra and the line analysis take O(N log N) on the whole record;
+everything else runs on at most the first 20 000 samples (the JSON's "samples_used" and
+"surrogate_segment" say which), so its cost does not grow with N; memory O(N).`,
 		Example: `  # a simulated Lorenz record: chaotic
   unfold simulate lorenz --n 20000 -o lorenz.csv
   unfold regime --column x lorenz.csv

@@ -84,7 +84,11 @@ summary that opens the page: the verdict, λ1 and D2 with units, the embedding, 
 that matter most and the figure to read first.
 
 --demo analyses the demo signal built into the binary (testdata/demo/strip.csv: a synthetic
-strain record, see testdata/demo/README.md).`,
+strain record, see testdata/demo/README.md).
+
+Cost as a function of N: the sum of the stages' costs (see each command's help), about
+O(N log N) in all: every quadratic step is bounded (sampled reference points, the first 20 000
+samples for the surrogate tests); memory O(N · m).`,
 		Example: `  # the demo signal: open demo-report/report.html in a browser
   unfold report --demo -o demo-report
   # a recording, with a given lag and dimension and PNG copies of the figures

@@ -41,7 +41,10 @@ numeric record, which is first turned into symbols as unfold symbols does (its -
 L (--max-length) is by default
   ` + states.LengthRule + `;
 a stream shorter than 5·K^(L+1) symbols is refused with the length it needs. --scan reconstructs at
-L = 1 … L so you see where the states, Cμ and hμ settle.`,
+L = 1 … L so you see where the states, Cμ and hμ settle.
+
+Cost as a function of the stream length N: O(N · L) to count the histories, then tests over
+at most K^(L+1) ≤ N/50 histories; memory O(K^(L+1)).`,
 		Example: `  unfold symbols --alphabet 2 logistic.csv -o logistic.sym
   unfold states logistic.sym
   # a numeric record: symbols from the generating-like partition, then the states
