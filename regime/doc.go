@@ -24,7 +24,10 @@
 //     (SpectralDrift), non-stationarity alone can reject stationary surrogates: undetermined.
 //     Otherwise chaotic when λ1's interval lies above zero (and λ1 exceeds 1 % growth per
 //     delay time) and its divergence curve has an exponential range (Exponent.Bounded false,
-//     see lyapunov.RangeCheck); else undetermined.
+//     see lyapunov.RangeCheck); else undetermined. Also undetermined when neither number is
+//     firm: λ1 depends on the fit choices (Exponent.Unsure) and D2 does not saturate with m,
+//     as for a high-dimensional or nonlinear stochastic signal; and when a flow's D2 saturates
+//     below 1.5 (a closed curve: a noisy or phase-diffusing limit cycle).
 //
 // Confidence is the weighted share of the evidence items (lines 3, prediction error 3, 0-1
 // test 2, λ1 2, D2 1.5, time reversal 1, Cao's E2 1) whose "points to" set contains the

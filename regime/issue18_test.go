@@ -6,6 +6,7 @@ import (
 	"testing"
 	"time"
 
+	"unfold/dimension"
 	"unfold/models"
 )
 
@@ -215,5 +216,22 @@ func TestDecideIssue18(t *testing.T) {
 		Drift: &Drift{Distance: 0.9, Noise: 0.1, Changed: true}})
 	if v.Regime == Chaotic || !hasCaution(v, "non-stationary spectrum") {
 		t.Errorf("spectral drift: %s, cautions %q", v.Regime, v.Cautions)
+	}
+	// Neither number firm: λ1 depends on the fit choices (unsure) and D2 keeps growing with m
+	// (not saturated) — what a high-dimensional or nonlinear stochastic signal gives too, as on
+	// a short stretch of the open ECG record. Low-dimensional chaos is not established (issue
+	// 18: deterministic verdicts need evidence specific to them; common practice to ask for a
+	// saturating D2 before calling a flow low-dimensional, Grassberger & Procaccia 1983).
+	unsure := &Exponent{Value: 13.6, Lo: 6.1, Hi: 13.6, Unsure: true, Why: "λ1 = 13.6 at m = 6 but 6.1 at m = 7"}
+	v = Decide(&Evidence{N: 5000, Dt: 1, Lag: 8, Stationary: true, Lines: broadband, Prediction: rej, Lyapunov: unsure,
+		Dimension: &dimension.Result{D2: 5.4, Lo: 5.2, Hi: 5.6, Dim: 8, Saturated: false}})
+	if v.Regime != Undetermined {
+		t.Errorf("unsure λ1 and unsaturated D2: %s (%s), want undetermined", v.Regime, v.Rule)
+	}
+	// The same with a saturated D2 stays chaotic: one firm number is enough.
+	v = Decide(&Evidence{N: 5000, Dt: 1, Lag: 8, Stationary: true, Lines: broadband, Prediction: rej, Lyapunov: unsure,
+		Dimension: &dimension.Result{D2: 2.05, Lo: 2.0, Hi: 2.1, Dim: 5, Saturated: true}})
+	if v.Regime != Chaotic {
+		t.Errorf("unsure λ1 with saturated D2 2.05: %s (%s), want chaotic", v.Regime, v.Rule)
 	}
 }

@@ -332,6 +332,12 @@ func Decide(ev *Evidence) *Verdict {
 	case chaosEvidence && cycleD2:
 		v.Regime = Undetermined
 		v.Rule = fmt.Sprintf("3: the null is rejected and λ1 > 0, but D2 saturates at %.2f: a closed curve, as for a noisy or phase-diffusing limit cycle; a chaotic flow needs D2 > 2", ev.Dimension.D2) + cycle
+	case chaosEvidence && ev.Lyapunov.Unsure && ev.Dimension != nil && !ev.Dimension.Saturated:
+		// Neither number is firm: an exponent that depends on the fit choices and a D2 that
+		// keeps growing with m are what a high-dimensional or nonlinear stochastic signal gives
+		// too; low-dimensional chaos needs at least one of them settled.
+		v.Regime = Undetermined
+		v.Rule = "3: the null is rejected (nonlinear structure) and λ1 > 0, but λ1's fit range is uncertain and D2 does not saturate: low-dimensional chaos is not established" + cycle
 	case chaosEvidence:
 		v.Regime = Chaotic
 		v.Rule = "3: the nonlinear prediction beats the surrogates and λ1 > 0 with an exponential range of the divergence"
