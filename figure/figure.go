@@ -138,13 +138,14 @@ func spread(y []float64, gap float64) []float64 {
 // Palette returns the colour of curve i: the project's palette (Color).
 func Palette(i int) color.Color { return Color(i) }
 
-// Lyapunov draws the divergence curves with the fit range shaded and the fitted line.
-func Lyapunov(run *analysis.LyapunovRun, name string) (*plot.Plot, error) {
+// Lyapunov draws the divergence curves with the fit range shaded and the fitted line; timeUnit
+// is the record's time unit ("" means "time units").
+func Lyapunov(run *analysis.LyapunovRun, name, timeUnit string) (*plot.Plot, error) {
 	if run == nil || run.R == nil {
 		return nil, fmt.Errorf("lyapunov: figure: no divergence curve to draw")
 	}
 	r := run.R
-	p, err := DivergencePlot(r, fmt.Sprintf("%s: divergence (%s, m = %d, τ = %d, Theiler %d)", name, run.Method, r.Dim, r.Lag, r.Theiler), "")
+	p, err := DivergencePlot(r, fmt.Sprintf("%s: divergence (%s, m = %d, τ = %d, Theiler %d)", name, run.Method, r.Dim, r.Lag, r.Theiler), timeUnit)
 	if err != nil {
 		return nil, fmt.Errorf("lyapunov: figure: %w", err)
 	}
@@ -153,8 +154,9 @@ func Lyapunov(run *analysis.LyapunovRun, name string) (*plot.Plot, error) {
 
 // Evidence draws the spectrum with its significant lines (Welch 1967) and the two surrogate
 // tests (Theiler et al. 1992, "Testing for nonlinearity in time series: the method of
-// surrogate data"): the surrogates' values as points, the data's as a vertical line.
-func Evidence(an *regime.Analysis, name string) ([][]*plot.Plot, error) {
+// surrogate data"): the surrogates' values as points, the data's as a vertical line. timeUnit
+// is the record's time unit ("" means "time units").
+func Evidence(an *regime.Analysis, name, timeUnit string) ([][]*plot.Plot, error) {
 	if an == nil || an.Evidence == nil {
 		return nil, fmt.Errorf("figure: evidence: nothing to draw")
 	}
@@ -165,7 +167,7 @@ func Evidence(an *regime.Analysis, name string) ([][]*plot.Plot, error) {
 		if an.Verdict != nil {
 			verdict = " → " + an.Verdict.Regime
 		}
-		p := New(fmt.Sprintf("%s: spectrum (%s)%s", name, l.Kind, verdict), "frequency [cycles per time unit]", "power density")
+		p := New(fmt.Sprintf("%s: spectrum (%s)%s", name, l.Kind, verdict), "frequency [cycles per "+singular(orTimeUnits(timeUnit))+"]", "power density")
 		LogAxis(&p.Y)
 		var fs, ps []float64
 		for k, pw := range l.Spectrum.Power {
@@ -452,3 +454,11 @@ func DelayPanel(x []float64, lag int, title string) (*plot.Plot, error) {
 
 // DelayPanelPoints is the largest number of delay vectors DelayPanel draws.
 const DelayPanelPoints = 20000
+
+// orTimeUnits is u, or "time units" when the record states no time unit.
+func orTimeUnits(u string) string {
+	if u == "" {
+		return "time units"
+	}
+	return u
+}

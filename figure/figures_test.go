@@ -114,7 +114,7 @@ func TestFiguresStyle(t *testing.T) {
 		Prediction: &regime.RankTest{Name: "prediction error", Data: 0.2, Surrogates: []float64{0.8, 0.9, 1, 0.95, 0.85}, P: 0.05},
 		Reversal:   &regime.RankTest{Name: "time-reversal asymmetry", Data: 0.5, Surrogates: []float64{0.1, -0.1, 0.05, 0, 0.02}, P: 0.05},
 	}}
-	rows, err := Evidence(an, "ev")
+	rows, err := Evidence(an, "ev", "")
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -207,7 +207,7 @@ func TestFiguresDegenerate(t *testing.T) {
 		spec := &regime.Spectrum{Freq: x, Power: x}
 		an := &regime.Analysis{Evidence: &regime.Evidence{Lines: &regime.Lines{Spectrum: spec},
 			Prediction: &regime.RankTest{Name: "e", Data: nan, Surrogates: x}}}
-		rows, err := Evidence(an, name)
+		rows, err := Evidence(an, name, "")
 		draw2(t, "evidence/"+name, rows, err)
 
 		var er analysis.EntropyResult
@@ -226,13 +226,13 @@ func TestFiguresDegenerate(t *testing.T) {
 	if _, err := Slopes(nil, "x"); err == nil {
 		t.Error("Slopes(nil): want an error")
 	}
-	if _, err := Lyapunov(nil, "x"); err == nil {
+	if _, err := Lyapunov(nil, "x", ""); err == nil {
 		t.Error("Lyapunov(nil): want an error")
 	}
-	if _, err := Evidence(nil, "x"); err == nil {
+	if _, err := Evidence(nil, "x", ""); err == nil {
 		t.Error("Evidence(nil): want an error")
 	}
-	if _, err := Evidence(&regime.Analysis{Evidence: &regime.Evidence{}}, "x"); err == nil {
+	if _, err := Evidence(&regime.Analysis{Evidence: &regime.Evidence{}}, "x", ""); err == nil {
 		t.Error("Evidence without spectrum and tests: want an error")
 	}
 	if _, _, err := Symbols(nil, "x"); err == nil {
@@ -249,5 +249,19 @@ func TestSpread(t *testing.T) {
 		if got[i] != want[i] {
 			t.Fatalf("spread = %v, want %v", got, want)
 		}
+	}
+}
+
+// TestTimeUnitOnAxes: the record's time unit reaches the axes of the divergence and spectrum
+// figures (issue 15: no axis says "time units" when the header states seconds).
+func TestTimeUnitOnAxes(t *testing.T) {
+	an := &regime.Analysis{Evidence: &regime.Evidence{Lines: &regime.Lines{Kind: regime.LinesBroadband,
+		Spectrum: &regime.Spectrum{Freq: []float64{0, 1, 2, 3}, Power: []float64{1, 2, 1, 0.5}}}}}
+	rows, err := Evidence(an, "ev", "s")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if got := rows[0][0].X.Label.Text; got != "frequency [cycles per s]" {
+		t.Errorf("spectrum axis %q, want cycles per s", got)
 	}
 }

@@ -264,7 +264,7 @@ func lyapunovStage(res *analysis.Result, fig figure.Record) Stage {
 		if err != nil {
 			return nil, err
 		}
-		pl, err := figure.Lyapunov(run, title)
+		pl, err := figure.Lyapunov(run, title, fig.TimeUnit)
 		if err != nil {
 			return nil, err
 		}
@@ -363,7 +363,7 @@ func regimeStage(res *analysis.Result, fig figure.Record) Stage {
 		if err != nil {
 			return nil, err
 		}
-		rows, err := figure.Evidence(an, title)
+		rows, err := figure.Evidence(an, title, fig.TimeUnit)
 		if err != nil {
 			return nil, fmt.Errorf("regime: figure: %w", err)
 		}

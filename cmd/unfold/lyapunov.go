@@ -158,7 +158,7 @@ func (a *app) runLyapunov(path string, o *lyapunovOptions) error {
 		if path == "-" {
 			title = "standard input"
 		}
-		pl, err := figure.Lyapunov(run, title)
+		pl, err := figure.Lyapunov(run, title, s.TimeUnit)
 		if err != nil {
 			return err
 		}

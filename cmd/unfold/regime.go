@@ -119,7 +119,7 @@ func (a *app) runRegime(path string, o *regimeOptions) error {
 		a.notef("Theiler window %d samples (autocorrelation 1/e decay time)", ev.Theiler)
 	}
 	if o.plot != "" {
-		rows, err := figure.Evidence(an, figureName(path))
+		rows, err := figure.Evidence(an, figureName(path), s.TimeUnit)
 		if err != nil {
 			return err
 		}
