@@ -159,10 +159,30 @@ func (a *app) runBatch(cmd *cobra.Command, args []string, o *batchOptions) error
 	} else {
 		a.notef("batch: %d inputs, %d at a time", len(paths), jobs)
 	}
+	st, err := a.batchChain(cmd, paths, ro, jobs, o.retryErrors)
+	sum := filepath.Join(ro.output, "summary.csv")
+	a.notef("batch: %d analysed (%d ok, %d partial, %d errors), %d skipped (result complete, input unchanged); %s",
+		st.OK+st.Partial+st.Errors, st.OK, st.Partial, st.Errors, st.Skipped, sum)
+	if err != nil {
+		return err
+	}
+	if a.global.JSON {
+		p := batchParams{reportParams: a.newReportParams(ro),
+			Jobs: jobs, Shard: fmt.Sprintf("%d/%d", k, n), RetryErrors: o.retryErrors}
+		return a.emitJSON("batch", nil, p, batchBody{Directory: ro.output, Inputs: st.Inputs, Skipped: st.Skipped,
+			OK: st.OK, Partial: st.Partial, Errors: st.Errors, Summary: sum})
+	}
+	return nil
+}
+
+// batchChain runs the report's chain on paths with the batch machinery (report.RunBatch: one
+// result folder per input named report.FolderName(path), skipped when complete); batch and
+// sweep both call the chain here.
+func (a *app) batchChain(cmd *cobra.Command, paths []string, ro *reportOptions, jobs int, retryErrors bool) (report.BatchStats, error) {
 	// Each input runs on a quiet copy of the app: no per-stage lines or bars from parallel jobs.
 	inner := *a
 	inner.global.Quiet, inner.stderrTTY = true, false
-	st, err := report.RunBatch(paths, report.BatchOptions{Dir: ro.output, Jobs: jobs, RetryErrors: o.retryErrors, PNG: ro.png,
+	return report.RunBatch(paths, report.BatchOptions{Dir: ro.output, Jobs: jobs, RetryErrors: retryErrors, PNG: ro.png,
 		Version: versionString(), Log: func(line string) { a.notef("%s", line) },
 		Analyze: func(path string) (*report.Result, error) {
 			s, in, err := inner.loadInput(path, &ro.in)
@@ -171,18 +191,4 @@ func (a *app) runBatch(cmd *cobra.Command, args []string, o *batchOptions) error
 			}
 			return inner.runChain(cmd, []string{path}, path, filepath.Base(path), s, in, ro, false), nil
 		}})
-	sum := filepath.Join(ro.output, "summary.csv")
-	a.notef("batch: %d analysed (%d ok, %d partial, %d errors), %d skipped (result complete, input unchanged); %s",
-		st.OK+st.Partial+st.Errors, st.OK, st.Partial, st.Errors, st.Skipped, sum)
-	if err != nil {
-		return err
-	}
-	if a.global.JSON {
-		p := batchParams{reportParams: reportParams{Lag: ro.lag, Dim: ro.dim, MaxDim: ro.maxDim, Theiler: ro.theiler, MaxLag: ro.maxLag,
-			MI: ro.mi, Norm: ro.norm, Azimuth: ro.azimuth, Elevation: ro.elevation, PNG: ro.png, Threads: a.threads()},
-			Jobs: jobs, Shard: fmt.Sprintf("%d/%d", k, n), RetryErrors: o.retryErrors}
-		return a.emitJSON("batch", nil, p, batchBody{Directory: ro.output, Inputs: st.Inputs, Skipped: st.Skipped,
-			OK: st.OK, Partial: st.Partial, Errors: st.Errors, Summary: sum})
-	}
-	return nil
 }
