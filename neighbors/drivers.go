@@ -149,19 +149,7 @@ func (ix *Index) PairCounts(radii []float64, theiler int, threads int, progress 
 		return out
 	}
 	// Sorted thresholds in key units; bin b of a key is the first sorted threshold >= key.
-	order := make([]int, len(radii))
-	for i := range order {
-		order[i] = i
-	}
-	th := make([]float64, len(radii))
-	for i, r := range radii {
-		th[i] = ix.threshold(r)
-	}
-	sort.SliceStable(order, func(a, b int) bool { return th[order[a]] < th[order[b]] })
-	ts := make([]float64, len(radii))
-	for i, o := range order {
-		ts[i] = th[o]
-	}
+	order, ts := ix.sortedThresholds(radii)
 	pc := pairCounter{ix: ix, ts: ts, tmax: ts[len(ts)-1]}
 	if pc.tmax < 0 {
 		return out
@@ -181,10 +169,7 @@ func (ix *Index) PairCounts(radii []float64, theiler int, threads int, progress 
 	}
 	total := len(tasks) + nw
 	threads = resolveThreads(threads)
-	hists := make([][]int64, threads)
-	for t := range hists {
-		hists[t] = make([]int64, len(ts)+1)
-	}
+	hists := newHists(threads, len(ts)+1)
 	var next atomic.Int64
 	var mu sync.Mutex
 	done := 0
@@ -237,16 +222,7 @@ func (ix *Index) PairCounts(radii []float64, theiler int, threads int, progress 
 		wg.Wait()
 		g.Repanic()
 	}
-	for _, h := range hists {
-		for b := range top {
-			top[b] += h[b]
-		}
-	}
-	var cum int64
-	for i, o := range order {
-		cum += top[i]
-		out[o] = cum
-	}
+	cumulate(out, order, top, hists)
 	return out
 }
 
@@ -492,27 +468,12 @@ func (ix *Index) ReferencePairCounts(refs []int, radii []float64, theiler int, t
 	if ix.n < 2 || len(radii) == 0 || len(refs) == 0 {
 		return out
 	}
-	order := make([]int, len(radii))
-	for i := range order {
-		order[i] = i
-	}
-	th := make([]float64, len(radii))
-	for i, r := range radii {
-		th[i] = ix.threshold(r)
-	}
-	sort.SliceStable(order, func(a, b int) bool { return th[order[a]] < th[order[b]] })
-	ts := make([]float64, len(radii))
-	for i, o := range order {
-		ts[i] = th[o]
-	}
+	order, ts := ix.sortedThresholds(radii)
 	if ts[len(ts)-1] < 0 {
 		return out
 	}
 	threads = resolveThreads(threads)
-	hists := make([][]int64, threads)
-	for t := range hists {
-		hists[t] = make([]int64, len(ts)+1)
-	}
+	hists := newHists(threads, len(ts)+1)
 	w := max(theiler, 0)
 	var slot atomic.Int64
 	chunk := max(min(len(refs)/(8*threads), 256), 1)
@@ -540,6 +501,42 @@ func (ix *Index) ReferencePairCounts(refs []int, radii []float64, theiler int, t
 		}
 	})
 	top := make([]int64, len(ts)+1)
+	cumulate(out, order, top, hists)
+	return out
+}
+
+// sortedThresholds returns the thresholds of radii in key units in ascending order (ts) and,
+// for each, the index of its radius (order: ts[i] is the threshold of radii[order[i]]); ties
+// keep the order of radii.
+func (ix *Index) sortedThresholds(radii []float64) (order []int, ts []float64) {
+	order = make([]int, len(radii))
+	for i := range order {
+		order[i] = i
+	}
+	th := make([]float64, len(radii))
+	for i, r := range radii {
+		th[i] = ix.threshold(r)
+	}
+	sort.SliceStable(order, func(a, b int) bool { return th[order[a]] < th[order[b]] })
+	ts = make([]float64, len(radii))
+	for i, o := range order {
+		ts[i] = th[o]
+	}
+	return order, ts
+}
+
+// newHists returns one histogram of bins counts per thread.
+func newHists(threads, bins int) [][]int64 {
+	hists := make([][]int64, threads)
+	for t := range hists {
+		hists[t] = make([]int64, bins)
+	}
+	return hists
+}
+
+// cumulate adds the threads' histograms to top and writes the cumulative counts to out in
+// the order of the radii: out[order[i]] = top[0] + … + top[i].
+func cumulate(out []int64, order []int, top []int64, hists [][]int64) {
 	for _, h := range hists {
 		for b := range top {
 			top[b] += h[b]
@@ -550,7 +547,6 @@ func (ix *Index) ReferencePairCounts(refs []int, radii []float64, theiler int, t
 		cum += top[i]
 		out[o] = cum
 	}
-	return out
 }
 
 // binCounts adds to h[b] the number of admissible points whose key lies in bin b of the
