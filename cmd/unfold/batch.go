@@ -12,12 +12,10 @@ import (
 )
 
 type batchOptions struct {
-	report      reportOptions
-	list        string
-	jobs        int
-	shard       string
-	merge       string
-	retryErrors bool
+	report reportOptions
+	list   string
+	merge  string
+	batchFlags
 }
 
 type batchParams struct {
@@ -78,10 +76,8 @@ once more from every per-input result.`,
 	f := cmd.Flags()
 	addReportFlags(f, &o.report)
 	f.StringVar(&o.list, "list", "", "read input paths from this file, one per line (- for standard input)")
-	f.IntVar(&o.jobs, "jobs", 0, "inputs analysed at the same time (default: cores / --threads, at least 1)")
-	f.StringVar(&o.shard, "shard", "", "analyse only the K-th of N slices of the sorted inputs, as K/N with K = 1 … N")
+	addBatchFlags(f, &o.batchFlags, "inputs", "the sorted inputs")
 	f.StringVar(&o.merge, "merge", "", "only rebuild DIR/summary.csv from the result folders in DIR")
-	f.BoolVar(&o.retryErrors, "retry-errors", false, "analyse again the inputs whose last result was an error")
 	return cmd
 }
 

@@ -15,12 +15,10 @@ import (
 // sweepOptions are the flags of sweep: those of batch (the report's flags, --jobs, --shard,
 // --retry-errors) plus the parameter column and --merge.
 type sweepOptions struct {
-	report      reportOptions
-	parameter   string
-	jobs        int
-	shard       string
-	merge       bool
-	retryErrors bool
+	report    reportOptions
+	parameter string
+	merge     bool
+	batchFlags
 }
 
 type sweepParams struct {
@@ -80,10 +78,8 @@ once more without analysing anything.`,
 	f := cmd.Flags()
 	addReportFlags(f, &o.report)
 	f.StringVar(&o.parameter, "parameter", "", "the LIST column holding the control parameter (default: the only numeric column besides path)")
-	f.IntVar(&o.jobs, "jobs", 0, "records analysed at the same time (default: cores / --threads, at least 1)")
-	f.StringVar(&o.shard, "shard", "", "analyse only the K-th of N slices of the records sorted by path, as K/N with K = 1 … N")
+	addBatchFlags(f, &o.batchFlags, "records", "the records sorted by path")
 	f.BoolVar(&o.merge, "merge", false, "analyse nothing: only rebuild DIR/sweep.csv and DIR/sweep.html from the result folders in DIR")
-	f.BoolVar(&o.retryErrors, "retry-errors", false, "analyse again the records whose last result was an error")
 	return cmd
 }
 
