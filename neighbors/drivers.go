@@ -481,22 +481,7 @@ func (ix *Index) ReferencePairCounts(refs []int, radii []float64, theiler int, t
 		h := hists[int(slot.Add(1)-1)]
 		return func(start, end int) {
 			for _, i := range refs[start:end] {
-				if i < 0 || i >= ix.n {
-					continue
-				}
-				// All points are counted (kd-tree nodes mix distant times, so the window
-				// would keep every node from being counted whole); the pairs inside the
-				// window, i itself included, are then counted directly and subtracted.
-				a := ix.Coords(i)
-				s.binCounts(a, ts, Query{Self: -1}, h)
-				for j := max(i-w, 0); j <= min(i+w, ix.n-1); j++ {
-					k := 0
-					for key := ix.key(a, ix.Coords(j)); k < len(ts) && ts[k] < key; k++ {
-					}
-					if k < len(ts) {
-						h[k]--
-					}
-				}
+				s.countReference(i, w, ts, h)
 			}
 		}
 	})
@@ -546,6 +531,28 @@ func cumulate(out []int64, order []int, top []int64, hists [][]int64) {
 	for i, o := range order {
 		cum += top[i]
 		out[o] = cum
+	}
+}
+
+// countReference adds to h[b] the pairs of reference i whose key lies in bin b of the
+// ascending thresholds ts, less the pairs inside its Theiler window w (i itself included); a
+// reference outside the index counts nothing. All points are counted (kd-tree nodes mix
+// distant times, so the window would keep every node from being counted whole); the pairs
+// inside the window are then counted directly and subtracted. It allocates nothing.
+func (s *Searcher) countReference(i, w int, ts []float64, h []int64) {
+	ix := s.ix
+	if i < 0 || i >= ix.n {
+		return
+	}
+	a := ix.Coords(i)
+	s.binCounts(a, ts, Query{Self: -1}, h)
+	for j := max(i-w, 0); j <= min(i+w, ix.n-1); j++ {
+		k := 0
+		for key := ix.key(a, ix.Coords(j)); k < len(ts) && ts[k] < key; k++ {
+		}
+		if k < len(ts) {
+			h[k]--
+		}
 	}
 }
 
@@ -702,10 +709,7 @@ func (ix *Index) ReferencePairCountsUntil(refs []int, radii []float64, theiler, 
 	batch = max(batch, 1)
 	threads = resolveThreads(threads)
 	w := max(theiler, 0)
-	hists := make([][]int64, threads)
-	for t := range hists {
-		hists[t] = make([]int64, K+1)
-	}
+	hists := newHists(threads, K+1)
 	searchers := make([]*Searcher, threads)
 	for t := range searchers {
 		searchers[t] = ix.NewSearcher()
@@ -717,20 +721,7 @@ func (ix *Index) ReferencePairCountsUntil(refs []int, radii []float64, theiler, 
 		body := func(t int) {
 			s, h := searchers[t], hists[t]
 			for c := t; c < len(part); c += threads {
-				i := part[c]
-				if i < 0 || i >= ix.n {
-					continue
-				}
-				a := ix.Coords(i)
-				s.binCounts(a, tsa, Query{Self: -1}, h)
-				for j := max(i-w, 0); j <= min(i+w, ix.n-1); j++ {
-					k := 0
-					for key := ix.key(a, ix.Coords(j)); k < len(tsa) && tsa[k] < key; k++ {
-					}
-					if k < len(tsa) {
-						h[k]--
-					}
-				}
+				s.countReference(part[c], w, tsa, h)
 			}
 		}
 		if threads == 1 || len(part) == 1 {
