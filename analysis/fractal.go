@@ -168,7 +168,7 @@ func (e *Env) Fractal(path string, s *series.Series, o FractalOptions, c *embed.
 		return fail(run, NoAnswer(fmt.Errorf("fractal: %s: %w", path, derr)))
 	}
 	res := FractalResult{D2: r.D2, Interval: [2]float64{r.Lo, r.Hi}, ScalingRange: [2]float64{r.RLo, r.RHi},
-		Saturated: r.Saturated, Dimension: r.Dim, Takens: finitePtr(r.Takens), Cautions: cautions, CorrelationSum: []CsumPoint{},
+		Saturated: r.Saturated, Dimension: r.Dim, Takens: Finite(r.Takens), Cautions: cautions, CorrelationSum: []CsumPoint{},
 		ReferencePoints: r.ReferencePoints, Sampling: r.Sampling}
 	for _, c := range r.Curves {
 		fd := FractalDim{Dimension: c.Dim}
@@ -187,11 +187,4 @@ func (e *Env) Fractal(path string, s *series.Series, o FractalOptions, c *embed.
 	p := FractalParams{Column: s.Name, Lag: lag, LagMethod: lagMethod, MaxDim: r.MaxDim, Theiler: theiler,
 		TheilerBy: theilerFrom, Norm: r.Norm, Radii: len(r.Radii), Exact: o.Exact, Seed: e.Seed}
 	return run, p, res, nil
-}
-
-func finitePtr(v float64) *float64 {
-	if math.IsNaN(v) || math.IsInf(v, 0) {
-		return nil
-	}
-	return &v
 }

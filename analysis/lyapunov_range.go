@@ -23,7 +23,7 @@ type RangeCheckJSON struct {
 func checkRange(r *lyapunov.Result, res *LyapunovResult, dt float64) {
 	rc := r.CheckRange()
 	for _, v := range []float64{rc.Growth, rc.Spread[0], rc.Spread[1], r.Interval[0], r.Interval[1]} {
-		if finite(v) == nil {
+		if Finite(v) == nil {
 			res.Cautions = append(res.Cautions, "the fit range could not be checked (a non-finite slope or interval)")
 			return
 		}

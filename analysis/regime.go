@@ -124,7 +124,7 @@ func (e *Env) Regime(path string, s *series.Series, o RegimeOptions, ev RegimeEv
 	res := RegimeResult{Regime: v.Regime, Confidence: v.Confidence, Rule: v.Rule,
 		Evidence: v.Evidence, Tests: []*regime.RankTest{evd.Prediction, evd.Reversal}, Unused: v.Unused, Cautions: v.Cautions}
 	if v.DominantPeriod > 0 {
-		res.DominantPeriod = finite(v.DominantPeriod)
+		res.DominantPeriod = Finite(v.DominantPeriod)
 	}
 	if res.Unused == nil {
 		res.Unused = []string{}

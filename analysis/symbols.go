@@ -70,7 +70,9 @@ type SymbolsResult struct {
 	Cautions     []string      `json:"cautions"`
 }
 
-func finite(v float64) *float64 {
+// Finite is v, or nil (null in JSON) when v is not a finite number: the one way a result
+// field that may have no answer is written.
+func Finite(v float64) *float64 {
 	if math.IsNaN(v) || math.IsInf(v, 0) {
 		return nil
 	}
@@ -264,8 +266,8 @@ func (run *SymbolsRun) WriteSymbols(w io.Writer, name string, src symbolic.Sourc
 func (run *SymbolsRun) Result(sc *symbolic.Sidecar, output, sidecar string) SymbolsResult {
 	p := run.Part
 	return SymbolsResult{
-		Partition: PartitionJSON{Kind: p.Kind, Thresholds: p.Thresholds, Score: finite(p.Score), Criterion: partition.Criterion,
-			EntropyRate: finite(p.EntropyRate), AppliedTo: run.Applied, Rule: run.Rule},
+		Partition: PartitionJSON{Kind: p.Kind, Thresholds: p.Thresholds, Score: Finite(p.Score), Criterion: partition.Criterion,
+			EntropyRate: Finite(p.EntropyRate), AppliedTo: run.Applied, Rule: run.Rule},
 		AlphabetSize: p.K(), Alphabet: run.Alphabet, Count: sc.Count, Counts: sc.Counts,
 		Output: output, Sidecar: sidecar, Cautions: run.Cautions}
 }

@@ -1,10 +1,9 @@
 package dimension
 
 import (
-	"encoding/csv"
-	"os"
-	"strconv"
 	"testing"
+
+	"unfold/internal/testsignals"
 )
 
 // TestD2NeverAboveM: on R's co2 (Mauna Loa CO2, a strong trend plus a yearly cycle,
@@ -13,23 +12,7 @@ import (
 // like r^m (Grassberger & Procaccia 1983, Physica D 9, 189), so D2 and its interval may never
 // exceed the dimension they are read at.
 func TestD2NeverAboveM(t *testing.T) {
-	f, err := os.Open("../testdata/r/co2.csv")
-	if err != nil {
-		t.Fatal(err)
-	}
-	defer f.Close()
-	rows, err := csv.NewReader(f).ReadAll()
-	if err != nil {
-		t.Fatal(err)
-	}
-	var x []float64
-	for _, r := range rows[1:] {
-		v, err := strconv.ParseFloat(r[2], 64)
-		if err != nil {
-			t.Fatal(err)
-		}
-		x = append(x, v)
-	}
+	x := testsignals.OpenRecord(t, "r/co2.csv", 1)
 	r, err := CorrelationDimension(x, Options{Lag: 6, MaxDim: 5, Theiler: 170, Seed: 7})
 	if err != nil {
 		t.Skipf("no scaling range at all: %v", err)

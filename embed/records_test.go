@@ -1,39 +1,10 @@
 package embed
 
 import (
-	"encoding/csv"
-	"os"
-	"strconv"
 	"testing"
-)
 
-// record reads column col (0-based, after R's row-name column when there is one) of a CSV
-// file in testdata: the R files of testdata/r and testdata/ecg/ecg.csv.
-func record(t testing.TB, path string, col int) []float64 {
-	t.Helper()
-	f, err := os.Open("../testdata/" + path)
-	if err != nil {
-		t.Fatal(err)
-	}
-	defer f.Close()
-	rows, err := csv.NewReader(f).ReadAll()
-	if err != nil {
-		t.Fatal(err)
-	}
-	skip := 0
-	if rows[0][0] == "" {
-		skip = 1
-	}
-	x := make([]float64, 0, len(rows)-1)
-	for _, r := range rows[1:] {
-		v, err := strconv.ParseFloat(r[skip+col], 64)
-		if err != nil {
-			t.Fatalf("%s: %v", path, err)
-		}
-		x = append(x, v)
-	}
-	return x
-}
+	"unfold/internal/testsignals"
+)
 
 // TestEmbeddingRealRecords: every open record of 48 samples or more gets a lag and a
 // dimension (issue 18), a trended record (R's co2: Mauna Loa CO2 with its rising trend,
@@ -58,7 +29,7 @@ func TestEmbeddingRealRecords(t *testing.T) {
 		{"ecg/ecg.csv", 0, false},
 	}
 	for _, c := range cases {
-		x := record(t, c.path, 1)
+		x := testsignals.OpenRecord(t, c.path, 1)
 		lc, err := ChooseLag(x, LagOptions{})
 		if err != nil {
 			t.Errorf("%s (N = %d): no lag: %v", c.path, len(x), err)

@@ -149,19 +149,7 @@ func (ix *Index) PairCounts(radii []float64, theiler int, threads int, progress 
 		return out
 	}
 	// Sorted thresholds in key units; bin b of a key is the first sorted threshold >= key.
-	order := make([]int, len(radii))
-	for i := range order {
-		order[i] = i
-	}
-	th := make([]float64, len(radii))
-	for i, r := range radii {
-		th[i] = ix.threshold(r)
-	}
-	sort.SliceStable(order, func(a, b int) bool { return th[order[a]] < th[order[b]] })
-	ts := make([]float64, len(radii))
-	for i, o := range order {
-		ts[i] = th[o]
-	}
+	order, ts := ix.sortedThresholds(radii)
 	pc := pairCounter{ix: ix, ts: ts, tmax: ts[len(ts)-1]}
 	if pc.tmax < 0 {
 		return out
@@ -181,10 +169,7 @@ func (ix *Index) PairCounts(radii []float64, theiler int, threads int, progress 
 	}
 	total := len(tasks) + nw
 	threads = resolveThreads(threads)
-	hists := make([][]int64, threads)
-	for t := range hists {
-		hists[t] = make([]int64, len(ts)+1)
-	}
+	hists := newHists(threads, len(ts)+1)
 	var next atomic.Int64
 	var mu sync.Mutex
 	done := 0
@@ -237,16 +222,7 @@ func (ix *Index) PairCounts(radii []float64, theiler int, threads int, progress 
 		wg.Wait()
 		g.Repanic()
 	}
-	for _, h := range hists {
-		for b := range top {
-			top[b] += h[b]
-		}
-	}
-	var cum int64
-	for i, o := range order {
-		cum += top[i]
-		out[o] = cum
-	}
+	cumulate(out, order, top, hists)
 	return out
 }
 
@@ -492,7 +468,33 @@ func (ix *Index) ReferencePairCounts(refs []int, radii []float64, theiler int, t
 	if ix.n < 2 || len(radii) == 0 || len(refs) == 0 {
 		return out
 	}
-	order := make([]int, len(radii))
+	order, ts := ix.sortedThresholds(radii)
+	if ts[len(ts)-1] < 0 {
+		return out
+	}
+	threads = resolveThreads(threads)
+	hists := newHists(threads, len(ts)+1)
+	w := max(theiler, 0)
+	var slot atomic.Int64
+	chunk := max(min(len(refs)/(8*threads), 256), 1)
+	ix.parallel(len(refs), chunk, threads, progress, func(s *Searcher) func(start, end int) {
+		h := hists[int(slot.Add(1)-1)]
+		return func(start, end int) {
+			for _, i := range refs[start:end] {
+				s.countReference(i, w, ts, h)
+			}
+		}
+	})
+	top := make([]int64, len(ts)+1)
+	cumulate(out, order, top, hists)
+	return out
+}
+
+// sortedThresholds returns the thresholds of radii in key units in ascending order (ts) and,
+// for each, the index of its radius (order: ts[i] is the threshold of radii[order[i]]); ties
+// keep the order of radii.
+func (ix *Index) sortedThresholds(radii []float64) (order []int, ts []float64) {
+	order = make([]int, len(radii))
 	for i := range order {
 		order[i] = i
 	}
@@ -501,45 +503,25 @@ func (ix *Index) ReferencePairCounts(refs []int, radii []float64, theiler int, t
 		th[i] = ix.threshold(r)
 	}
 	sort.SliceStable(order, func(a, b int) bool { return th[order[a]] < th[order[b]] })
-	ts := make([]float64, len(radii))
+	ts = make([]float64, len(radii))
 	for i, o := range order {
 		ts[i] = th[o]
 	}
-	if ts[len(ts)-1] < 0 {
-		return out
-	}
-	threads = resolveThreads(threads)
+	return order, ts
+}
+
+// newHists returns one histogram of bins counts per thread.
+func newHists(threads, bins int) [][]int64 {
 	hists := make([][]int64, threads)
 	for t := range hists {
-		hists[t] = make([]int64, len(ts)+1)
+		hists[t] = make([]int64, bins)
 	}
-	w := max(theiler, 0)
-	var slot atomic.Int64
-	chunk := max(min(len(refs)/(8*threads), 256), 1)
-	ix.parallel(len(refs), chunk, threads, progress, func(s *Searcher) func(start, end int) {
-		h := hists[int(slot.Add(1)-1)]
-		return func(start, end int) {
-			for _, i := range refs[start:end] {
-				if i < 0 || i >= ix.n {
-					continue
-				}
-				// All points are counted (kd-tree nodes mix distant times, so the window
-				// would keep every node from being counted whole); the pairs inside the
-				// window, i itself included, are then counted directly and subtracted.
-				a := ix.Coords(i)
-				s.binCounts(a, ts, Query{Self: -1}, h)
-				for j := max(i-w, 0); j <= min(i+w, ix.n-1); j++ {
-					k := 0
-					for key := ix.key(a, ix.Coords(j)); k < len(ts) && ts[k] < key; k++ {
-					}
-					if k < len(ts) {
-						h[k]--
-					}
-				}
-			}
-		}
-	})
-	top := make([]int64, len(ts)+1)
+	return hists
+}
+
+// cumulate adds the threads' histograms to top and writes the cumulative counts to out in
+// the order of the radii: out[order[i]] = top[0] + … + top[i].
+func cumulate(out []int64, order []int, top []int64, hists [][]int64) {
 	for _, h := range hists {
 		for b := range top {
 			top[b] += h[b]
@@ -550,7 +532,28 @@ func (ix *Index) ReferencePairCounts(refs []int, radii []float64, theiler int, t
 		cum += top[i]
 		out[o] = cum
 	}
-	return out
+}
+
+// countReference adds to h[b] the pairs of reference i whose key lies in bin b of the
+// ascending thresholds ts, less the pairs inside its Theiler window w (i itself included); a
+// reference outside the index counts nothing. All points are counted (kd-tree nodes mix
+// distant times, so the window would keep every node from being counted whole); the pairs
+// inside the window are then counted directly and subtracted. It allocates nothing.
+func (s *Searcher) countReference(i, w int, ts []float64, h []int64) {
+	ix := s.ix
+	if i < 0 || i >= ix.n {
+		return
+	}
+	a := ix.Coords(i)
+	s.binCounts(a, ts, Query{Self: -1}, h)
+	for j := max(i-w, 0); j <= min(i+w, ix.n-1); j++ {
+		k := 0
+		for key := ix.key(a, ix.Coords(j)); k < len(ts) && ts[k] < key; k++ {
+		}
+		if k < len(ts) {
+			h[k]--
+		}
+	}
 }
 
 // binCounts adds to h[b] the number of admissible points whose key lies in bin b of the
@@ -706,10 +709,7 @@ func (ix *Index) ReferencePairCountsUntil(refs []int, radii []float64, theiler, 
 	batch = max(batch, 1)
 	threads = resolveThreads(threads)
 	w := max(theiler, 0)
-	hists := make([][]int64, threads)
-	for t := range hists {
-		hists[t] = make([]int64, K+1)
-	}
+	hists := newHists(threads, K+1)
 	searchers := make([]*Searcher, threads)
 	for t := range searchers {
 		searchers[t] = ix.NewSearcher()
@@ -721,20 +721,7 @@ func (ix *Index) ReferencePairCountsUntil(refs []int, radii []float64, theiler, 
 		body := func(t int) {
 			s, h := searchers[t], hists[t]
 			for c := t; c < len(part); c += threads {
-				i := part[c]
-				if i < 0 || i >= ix.n {
-					continue
-				}
-				a := ix.Coords(i)
-				s.binCounts(a, tsa, Query{Self: -1}, h)
-				for j := max(i-w, 0); j <= min(i+w, ix.n-1); j++ {
-					k := 0
-					for key := ix.key(a, ix.Coords(j)); k < len(tsa) && tsa[k] < key; k++ {
-					}
-					if k < len(tsa) {
-						h[k]--
-					}
-				}
+				s.countReference(part[c], w, tsa, h)
 			}
 		}
 		if threads == 1 || len(part) == 1 {

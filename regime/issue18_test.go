@@ -7,6 +7,7 @@ import (
 	"time"
 
 	"unfold/dimension"
+	"unfold/internal/testsignals"
 	"unfold/models"
 )
 
@@ -148,7 +149,7 @@ func TestVerdictRecords(t *testing.T) {
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
-			x := record(t, c.path, 1)
+			x := testsignals.OpenRecord(t, c.path, 1)
 			if c.n > 0 {
 				x = x[:c.n]
 			}

@@ -614,6 +614,7 @@ func errorResult(version, path, sum, msg string) ([]byte, error) {
 	return append(b, '\n'), nil
 }
 
+// resultHead is the part of result.json that a batch summary and a sweep read back.
 type resultHead struct {
 	Input struct {
 		Path    string   `json:"path"`
@@ -621,8 +622,12 @@ type resultHead struct {
 		Samples *int     `json:"samples"`
 		Dt      *float64 `json:"dt"`
 	} `json:"input"`
-	Status     string      `json:"status"`
-	Error      string      `json:"error"`
+	Status     string `json:"status"`
+	Error      string `json:"error"`
+	Parameters struct {
+		Column string `json:"column"`
+		Gaps   string `json:"gaps"`
+	} `json:"parameters"`
 	Provenance *Provenance `json:"provenance"`
 	Lag        *struct {
 		Lag *int `json:"lag"`
@@ -631,10 +636,12 @@ type resultHead struct {
 		Dimension *int `json:"dimension"`
 	} `json:"dim"`
 	Lyapunov *struct {
-		LambdaMax *float64 `json:"lambda_max"`
+		LambdaMax *float64   `json:"lambda_max"`
+		Interval  []*float64 `json:"interval"`
 	} `json:"lyapunov"`
 	Fractal *struct {
-		D2 *float64 `json:"d2"`
+		D2       *float64   `json:"d2"`
+		Interval []*float64 `json:"interval"`
 	} `json:"fractal"`
 	Regime *struct {
 		Regime     *string  `json:"regime"`
@@ -646,7 +653,10 @@ type resultHead struct {
 	} `json:"states"`
 }
 
-func readResultHead(path string) (*resultHead, error) {
+// decodeResult reads the result.json at path as it stands, complete or not. A file that
+// cannot be read gives the reader's error (fs.ErrNotExist when there is none); one that is
+// not valid JSON gives the decoder's error after the path.
+func decodeResult(path string) (*resultHead, error) {
 	b, err := os.ReadFile(path)
 	if err != nil {
 		return nil, err
@@ -655,10 +665,20 @@ func readResultHead(path string) (*resultHead, error) {
 	if err := json.Unmarshal(b, &h); err != nil {
 		return nil, fmt.Errorf("%s: %w", path, err)
 	}
+	return &h, nil
+}
+
+// readResultHead reads the result.json at path and refuses one without a status or an
+// input path (a run that did not finish writing it).
+func readResultHead(path string) (*resultHead, error) {
+	h, err := decodeResult(path)
+	if err != nil {
+		return nil, err
+	}
 	if h.Status == "" || h.Input.Path == "" {
 		return nil, fmt.Errorf("%s: not a complete result", path)
 	}
-	return &h, nil
+	return h, nil
 }
 
 // SummaryHeader returns the header of summary.csv.

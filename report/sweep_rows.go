@@ -1,12 +1,9 @@
 package report
 
 import (
-	"encoding/json"
 	"errors"
-	"fmt"
 	"io/fs"
 	"math"
-	"os"
 	"path/filepath"
 	"sort"
 	"strings"
@@ -24,44 +21,6 @@ type SweepOptions struct {
 	// MaxPoints is the number of bifurcation-diagram values kept per record, from its end
 	// (0 means 200).
 	MaxPoints int
-}
-
-// sweepResult is the part of result.json a sweep reads.
-type sweepResult struct {
-	Input struct {
-		Path    string   `json:"path"`
-		Samples *int     `json:"samples"`
-		Dt      *float64 `json:"dt"`
-	} `json:"input"`
-	Status     string `json:"status"`
-	Error      string `json:"error"`
-	Parameters struct {
-		Column string `json:"column"`
-		Gaps   string `json:"gaps"`
-	} `json:"parameters"`
-	Provenance *Provenance `json:"provenance"`
-	Lag        *struct {
-		Lag *int `json:"lag"`
-	} `json:"lag"`
-	Dim *struct {
-		Dimension *int `json:"dimension"`
-	} `json:"dim"`
-	Lyapunov *struct {
-		LambdaMax *float64   `json:"lambda_max"`
-		Interval  []*float64 `json:"interval"`
-	} `json:"lyapunov"`
-	Fractal *struct {
-		D2       *float64   `json:"d2"`
-		Interval []*float64 `json:"interval"`
-	} `json:"fractal"`
-	Regime *struct {
-		Regime     *string  `json:"regime"`
-		Confidence *float64 `json:"confidence"`
-	} `json:"regime"`
-	States *struct {
-		StatisticalComplexity *float64 `json:"statistical_complexity"`
-		EntropyRate           *float64 `json:"entropy_rate"`
-	} `json:"states"`
 }
 
 func val(p *float64) float64 {
@@ -98,17 +57,13 @@ func sweepRow(dir string, e SweepEntry, opt SweepOptions) SweepRow {
 		LambdaMax: nan, LambdaLo: nan, LambdaHi: nan, D2: nan, D2Lo: nan, D2Hi: nan,
 		EntropyRate: nan, Complexity: nan}
 	p := filepath.Join(dir, FolderName(CanonicalPath(e.Path)), "result.json") // as RunBatch names it
-	b, err := os.ReadFile(p)
+	h, err := decodeResult(p)
 	if errors.Is(err, fs.ErrNotExist) {
 		r.Status, r.Error = "missing", "no result yet"
 		return r
 	}
-	var h sweepResult
-	if err == nil {
-		err = json.Unmarshal(b, &h)
-	}
 	if err != nil {
-		r.Status, r.Error = StatusError, fmt.Sprintf("%s: %v", p, err)
+		r.Status, r.Error = StatusError, err.Error()
 		return r
 	}
 	r.Status, r.Error = h.Status, h.Error

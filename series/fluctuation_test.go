@@ -1,34 +1,11 @@
 package series
 
 import (
-	"encoding/csv"
-	"os"
-	"strconv"
 	"strings"
 	"testing"
-)
 
-func rColumn(t *testing.T, file string) []float64 {
-	t.Helper()
-	f, err := os.Open("../testdata/r/" + file)
-	if err != nil {
-		t.Fatal(err)
-	}
-	defer f.Close()
-	rows, err := csv.NewReader(f).ReadAll()
-	if err != nil {
-		t.Fatal(err)
-	}
-	var x []float64
-	for _, r := range rows[1:] {
-		v, err := strconv.ParseFloat(r[2], 64)
-		if err != nil {
-			t.Fatal(err)
-		}
-		x = append(x, v)
-	}
-	return x
-}
+	"unfold/internal/testsignals"
+)
 
 // TestGrowingSeasonality: R's AirPassengers (monthly airline passengers 1949–1960,
 // help(AirPassengers)) has a seasonal cycle whose amplitude grows with the level — the
@@ -40,7 +17,7 @@ func TestGrowingSeasonality(t *testing.T) {
 		file string
 		want bool
 	}{{"airpassengers.csv", true}, {"nottem.csv", false}} {
-		sm, err := Describe(&Series{Values: rColumn(t, c.file), Dt: 1. / 12})
+		sm, err := Describe(&Series{Values: testsignals.OpenRecord(t, "r/"+c.file, 1), Dt: 1. / 12})
 		if err != nil {
 			t.Fatal(err)
 		}

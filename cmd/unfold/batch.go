@@ -12,12 +12,10 @@ import (
 )
 
 type batchOptions struct {
-	report      reportOptions
-	list        string
-	jobs        int
-	shard       string
-	merge       string
-	retryErrors bool
+	report reportOptions
+	list   string
+	merge  string
+	batchFlags
 }
 
 type batchParams struct {
@@ -78,10 +76,8 @@ once more from every per-input result.`,
 	f := cmd.Flags()
 	addReportFlags(f, &o.report)
 	f.StringVar(&o.list, "list", "", "read input paths from this file, one per line (- for standard input)")
-	f.IntVar(&o.jobs, "jobs", 0, "inputs analysed at the same time (default: cores / --threads, at least 1)")
-	f.StringVar(&o.shard, "shard", "", "analyse only the K-th of N slices of the sorted inputs, as K/N with K = 1 … N")
+	addBatchFlags(f, &o.batchFlags, "inputs", "the sorted inputs")
 	f.StringVar(&o.merge, "merge", "", "only rebuild DIR/summary.csv from the result folders in DIR")
-	f.BoolVar(&o.retryErrors, "retry-errors", false, "analyse again the inputs whose last result was an error")
 	return cmd
 }
 
@@ -159,10 +155,30 @@ func (a *app) runBatch(cmd *cobra.Command, args []string, o *batchOptions) error
 	} else {
 		a.notef("batch: %d inputs, %d at a time", len(paths), jobs)
 	}
+	st, err := a.batchChain(cmd, paths, ro, jobs, o.retryErrors)
+	sum := filepath.Join(ro.output, "summary.csv")
+	a.notef("batch: %d analysed (%d ok, %d partial, %d errors), %d skipped (result complete, input unchanged); %s",
+		st.OK+st.Partial+st.Errors, st.OK, st.Partial, st.Errors, st.Skipped, sum)
+	if err != nil {
+		return err
+	}
+	if a.global.JSON {
+		p := batchParams{reportParams: a.newReportParams(ro),
+			Jobs: jobs, Shard: fmt.Sprintf("%d/%d", k, n), RetryErrors: o.retryErrors}
+		return a.emitJSON("batch", nil, p, batchBody{Directory: ro.output, Inputs: st.Inputs, Skipped: st.Skipped,
+			OK: st.OK, Partial: st.Partial, Errors: st.Errors, Summary: sum})
+	}
+	return nil
+}
+
+// batchChain runs the report's chain on paths with the batch machinery (report.RunBatch: one
+// result folder per input named report.FolderName(path), skipped when complete); batch and
+// sweep both call the chain here.
+func (a *app) batchChain(cmd *cobra.Command, paths []string, ro *reportOptions, jobs int, retryErrors bool) (report.BatchStats, error) {
 	// Each input runs on a quiet copy of the app: no per-stage lines or bars from parallel jobs.
 	inner := *a
 	inner.global.Quiet, inner.stderrTTY = true, false
-	st, err := report.RunBatch(paths, report.BatchOptions{Dir: ro.output, Jobs: jobs, RetryErrors: o.retryErrors, PNG: ro.png,
+	return report.RunBatch(paths, report.BatchOptions{Dir: ro.output, Jobs: jobs, RetryErrors: retryErrors, PNG: ro.png,
 		Version: versionString(), Log: func(line string) { a.notef("%s", line) },
 		Analyze: func(path string) (*report.Result, error) {
 			s, in, err := inner.loadInput(path, &ro.in)
@@ -171,18 +187,4 @@ func (a *app) runBatch(cmd *cobra.Command, args []string, o *batchOptions) error
 			}
 			return inner.runChain(cmd, []string{path}, path, filepath.Base(path), s, in, ro, false), nil
 		}})
-	sum := filepath.Join(ro.output, "summary.csv")
-	a.notef("batch: %d analysed (%d ok, %d partial, %d errors), %d skipped (result complete, input unchanged); %s",
-		st.OK+st.Partial+st.Errors, st.OK, st.Partial, st.Errors, st.Skipped, sum)
-	if err != nil {
-		return err
-	}
-	if a.global.JSON {
-		p := batchParams{reportParams: reportParams{Lag: ro.lag, Dim: ro.dim, MaxDim: ro.maxDim, Theiler: ro.theiler, MaxLag: ro.maxLag,
-			MI: ro.mi, Norm: ro.norm, Azimuth: ro.azimuth, Elevation: ro.elevation, PNG: ro.png, Threads: a.threads()},
-			Jobs: jobs, Shard: fmt.Sprintf("%d/%d", k, n), RetryErrors: o.retryErrors}
-		return a.emitJSON("batch", nil, p, batchBody{Directory: ro.output, Inputs: st.Inputs, Skipped: st.Skipped,
-			OK: st.OK, Partial: st.Partial, Errors: st.Errors, Summary: sum})
-	}
-	return nil
 }

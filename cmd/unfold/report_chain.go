@@ -88,8 +88,8 @@ func (a *app) loadReportInput(path string, o *reportOptions) (*series.Series, *i
 // runChain runs the chain (analysis.Run) on s and renders every stage's section; with
 // progress, one line per stage goes to stderr.
 func (a *app) runChain(cmd *cobra.Command, args []string, path, title string, s *series.Series, in *inputInfo, o *reportOptions, progress bool) *report.Result {
-	p := reportParams{prepParams: newPrepParams(s, &o.in), Lag: o.lag, Dim: o.dim, MaxDim: o.maxDim, Theiler: o.theiler,
-		MaxLag: o.maxLag, MI: o.mi, Norm: o.norm, Azimuth: o.azimuth, Elevation: o.elevation, PNG: o.png, Threads: a.threads()}
+	p := a.newReportParams(o)
+	p.prepParams = newPrepParams(s, &o.in)
 	h := report.Header{Version: versionString(), Commit: commitID(), CommandLine: cmdLine(cmd, args),
 		Seeds: map[string]uint64{"seed": a.global.Seed}, Parameters: p, Title: title,
 		Input: report.Input{Path: in.Path, SHA256: in.SHA256, Samples: in.Samples, Dt: in.Dt, Units: in.Units}}
@@ -126,4 +126,11 @@ func (a *app) runChain(cmd *cobra.Command, args []string, path, title string, s 
 		res = &analysis.Result{Stages: []analysis.StageRecord{{Key: "inspect", Status: analysis.StatusError, Error: err.Error()}}}
 	}
 	return report.Build(h, res, s, fig, view)
+}
+
+// newReportParams returns the parameters of the report's chain as the JSON output records
+// them (without the input preparation, which each input adds).
+func (a *app) newReportParams(o *reportOptions) reportParams {
+	return reportParams{Lag: o.lag, Dim: o.dim, MaxDim: o.maxDim, Theiler: o.theiler, MaxLag: o.maxLag, MI: o.mi,
+		Norm: o.norm, Azimuth: o.azimuth, Elevation: o.elevation, PNG: o.png, Threads: a.threads()}
 }

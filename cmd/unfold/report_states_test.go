@@ -18,17 +18,7 @@ import (
 // hμ ± 0.02 bit).
 func TestReportStates(t *testing.T) {
 	dir := t.TempDir()
-	in := writeLogisticMap(t, dir, 8000)
-	out := filepath.Join(dir, "rep")
-	_, stderr, code := runCLI(t, "", "report", "-q", "--threads", "2", "-o", out, in)
-	if code != 0 && code != 1 {
-		t.Fatalf("report: exit %d: %s", code, stderr)
-	}
-	b, err := os.ReadFile(filepath.Join(out, "result.json"))
-	if err != nil {
-		t.Fatal(err)
-	}
-	m := decode(t, string(b))
+	in, out, m := reportOnLogistic(t, dir)
 	got, ok := m["states"].(map[string]any)
 	if !ok {
 		t.Fatalf("no states object in result.json: %v", m["provenance"])

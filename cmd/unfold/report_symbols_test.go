@@ -17,17 +17,7 @@ import (
 // published ones, and the page has the return-map and entropy figures in those sections.
 func TestReportSymbolsEntropy(t *testing.T) {
 	dir := t.TempDir()
-	in := writeLogisticMap(t, dir, 8000)
-	out := filepath.Join(dir, "rep")
-	_, stderr, code := runCLI(t, "", "report", "-q", "--threads", "2", "-o", out, in)
-	if code != 0 && code != 1 {
-		t.Fatalf("report: exit %d: %s", code, stderr)
-	}
-	b, err := os.ReadFile(filepath.Join(out, "result.json"))
-	if err != nil {
-		t.Fatal(err)
-	}
-	m := decode(t, string(b))
+	in, out, m := reportOnLogistic(t, dir)
 	sym := filepath.Join(dir, "x.sym")
 	so, se, code := runCLI(t, "", "symbols", "--json", "-q", "--threads", "2", in, "-o", sym)
 	if code != 0 {
@@ -64,4 +54,22 @@ func TestReportSymbolsEntropy(t *testing.T) {
 		t.Fatal(err)
 	}
 	checkStageFigures(t, page, map[string]string{"symbols": "symbols", "entropy": "entropy"})
+}
+
+// reportOnLogistic writes 8000 values of the logistic map at r = 4 (writeLogisticMap) in dir,
+// runs `unfold report` on them into dir/rep and returns the input, the report folder and its
+// result.json decoded; exit 1 (a stage without an answer) is allowed.
+func reportOnLogistic(t *testing.T, dir string) (in, out string, m map[string]any) {
+	t.Helper()
+	in = writeLogisticMap(t, dir, 8000)
+	out = filepath.Join(dir, "rep")
+	_, stderr, code := runCLI(t, "", "report", "-q", "--threads", "2", "-o", out, in)
+	if code != 0 && code != 1 {
+		t.Fatalf("report: exit %d: %s", code, stderr)
+	}
+	b, err := os.ReadFile(filepath.Join(out, "result.json"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	return in, out, decode(t, string(b))
 }

@@ -15,12 +15,10 @@ import (
 // sweepOptions are the flags of sweep: those of batch (the report's flags, --jobs, --shard,
 // --retry-errors) plus the parameter column and --merge.
 type sweepOptions struct {
-	report      reportOptions
-	parameter   string
-	jobs        int
-	shard       string
-	merge       bool
-	retryErrors bool
+	report    reportOptions
+	parameter string
+	merge     bool
+	batchFlags
 }
 
 type sweepParams struct {
@@ -80,10 +78,8 @@ once more without analysing anything.`,
 	f := cmd.Flags()
 	addReportFlags(f, &o.report)
 	f.StringVar(&o.parameter, "parameter", "", "the LIST column holding the control parameter (default: the only numeric column besides path)")
-	f.IntVar(&o.jobs, "jobs", 0, "records analysed at the same time (default: cores / --threads, at least 1)")
-	f.StringVar(&o.shard, "shard", "", "analyse only the K-th of N slices of the records sorted by path, as K/N with K = 1 … N")
+	addBatchFlags(f, &o.batchFlags, "records", "the records sorted by path")
 	f.BoolVar(&o.merge, "merge", false, "analyse nothing: only rebuild DIR/sweep.csv and DIR/sweep.html from the result folders in DIR")
-	f.BoolVar(&o.retryErrors, "retry-errors", false, "analyse again the records whose last result was an error")
 	return cmd
 }
 
@@ -145,32 +141,18 @@ func (a *app) runSweep(cmd *cobra.Command, listPath string, o *sweepOptions) err
 	a.notef("sweep: wrote %s and %s", csvPath, htmlPath)
 	tr := report.Transitions(list.Parameter, rows)
 	if a.global.JSON {
-		p := sweepParams{reportParams: reportParams{Lag: ro.lag, Dim: ro.dim, MaxDim: ro.maxDim, Theiler: ro.theiler, MaxLag: ro.maxLag,
-			MI: ro.mi, Norm: ro.norm, Azimuth: ro.azimuth, Elevation: ro.elevation, PNG: ro.png, Threads: a.threads()},
+		p := sweepParams{reportParams: a.newReportParams(ro),
 			List: listPath, Parameter: list.Parameter, Jobs: jobs, Shard: fmt.Sprintf("%d/%d", k, n), Merge: o.merge, RetryErrors: o.retryErrors}
 		return a.emitJSON("sweep", nil, p, newSweepBody(ro.output, csvPath, htmlPath, list, st, rows, tr))
 	}
 	return a.renderSweep(list, rows, tr, htmlPath)
 }
 
-// sweepChain runs the report's chain on paths with the batch machinery (report.RunBatch: one
-// result folder per record named report.FolderName(path), skipped when complete). It is the
-// one place where sweep calls the chain, so that it follows the chain when that moves.
+// sweepChain checks the report's options and runs the chain on paths as batch does
+// (batchChain: one result folder per record, skipped when complete).
 func (a *app) sweepChain(cmd *cobra.Command, paths []string, o *sweepOptions, jobs int) (report.BatchStats, error) {
-	ro := &o.report
-	if err := checkReportOptions(ro); err != nil {
+	if err := checkReportOptions(&o.report); err != nil {
 		return report.BatchStats{}, err
 	}
-	// Each record runs on a quiet copy of the app: no per-stage lines or bars from parallel jobs.
-	inner := *a
-	inner.global.Quiet, inner.stderrTTY = true, false
-	return report.RunBatch(paths, report.BatchOptions{Dir: ro.output, Jobs: jobs, RetryErrors: o.retryErrors, PNG: ro.png,
-		Version: versionString(), Log: func(line string) { a.notef("%s", line) },
-		Analyze: func(path string) (*report.Result, error) {
-			s, in, err := inner.loadInput(path, &ro.in)
-			if err != nil {
-				return nil, err
-			}
-			return inner.runChain(cmd, []string{path}, path, filepath.Base(path), s, in, ro, false), nil
-		}})
+	return a.batchChain(cmd, paths, &o.report, jobs, o.retryErrors)
 }

@@ -5,6 +5,7 @@ import (
 	"math"
 	"strconv"
 
+	"unfold/analysis"
 	"unfold/report"
 )
 
@@ -61,11 +62,11 @@ func newSweepBody(dir, csvPath, htmlPath string, list *report.SweepList, st repo
 		Partial: st.Partial, Errors: st.Errors, CSV: csvPath, HTML: htmlPath, Transitions: tr, Rows: []sweepRowJSON{}, Cautions: []string{}}
 	missing := 0
 	for _, r := range rows {
-		j := sweepRowJSON{Value: r.Value, Confidence: finite(r.Confidence), Lag: positive(r.Lag), Dimension: positive(r.Dimension),
-			LambdaMax: finite(r.LambdaMax), LambdaLo: finite(r.LambdaLo), LambdaHi: finite(r.LambdaHi),
-			D2: finite(r.D2), D2Lo: finite(r.D2Lo), D2Hi: finite(r.D2Hi), EntropyRate: finite(r.EntropyRate),
-			StatisticalComplexity: finite(r.Complexity), Frequencies: r.Frequencies, Samples: positive(r.Samples),
-			Dt: finite(r.Dt), Status: r.Status, Error: r.Error, Path: r.Path}
+		j := sweepRowJSON{Value: r.Value, Confidence: analysis.Finite(r.Confidence), Lag: positive(r.Lag), Dimension: positive(r.Dimension),
+			LambdaMax: analysis.Finite(r.LambdaMax), LambdaLo: analysis.Finite(r.LambdaLo), LambdaHi: analysis.Finite(r.LambdaHi),
+			D2: analysis.Finite(r.D2), D2Lo: analysis.Finite(r.D2Lo), D2Hi: analysis.Finite(r.D2Hi), EntropyRate: analysis.Finite(r.EntropyRate),
+			StatisticalComplexity: analysis.Finite(r.Complexity), Frequencies: r.Frequencies, Samples: positive(r.Samples),
+			Dt: analysis.Finite(r.Dt), Status: r.Status, Error: r.Error, Path: r.Path}
 		if j.Frequencies == nil {
 			j.Frequencies = []float64{}
 		}
@@ -125,12 +126,4 @@ func (a *app) renderSweep(list *report.SweepList, rows []report.SweepRow, tr []s
 	}
 	_, err := fmt.Fprintf(a.stdout, "page: %s\n", htmlPath)
 	return err
-}
-
-// finite is v, or nil (null in JSON) when v is not a finite number.
-func finite(v float64) *float64 {
-	if math.IsNaN(v) || math.IsInf(v, 0) {
-		return nil
-	}
-	return &v
 }

@@ -153,3 +153,15 @@ func moments(x []float64) (mean, variance, r1 float64) {
 	}
 	return mean, c0 / float64(len(x)), c1 / c0
 }
+
+// TestOpenRecord: R's co2 (help(co2)) has 468 monthly values, the first 315.42 ppm, and the
+// ECG of testdata/ecg starts at -0.245 mV (both read off the files' first data rows).
+func TestOpenRecord(t *testing.T) {
+	co2 := OpenRecord(t, "r/co2.csv", 1)
+	if len(co2) != 468 || co2[0] != 315.42 {
+		t.Errorf("co2: %d values, first %v; want 468, first 315.42", len(co2), co2[0])
+	}
+	if ecg := OpenRecord(t, "ecg/ecg.csv", 1); len(ecg) == 0 || ecg[0] != -0.245 {
+		t.Errorf("ecg: %d values, want the first -0.245", len(ecg))
+	}
+}
