@@ -28,7 +28,7 @@ func logistic(n int, x0 float64) []float64 {
 }
 
 // writeChecked draws rows on the canvas SizeFor gives, checks the SVG (checkSVG) and that it
-// holds none of the default cycle's colours, and returns it.
+// holds only colours of the project's style (InStyle), and returns it.
 func writeChecked(t *testing.T, name string, rows [][]*plot.Plot) string {
 	t.Helper()
 	w, h := SizeFor(rows)
@@ -37,29 +37,10 @@ func writeChecked(t *testing.T, name string, rows [][]*plot.Plot) string {
 		t.Fatalf("%s: %v", name, err)
 	}
 	checkSVG(t, name, b.Bytes())
-	s := strings.ToLower(b.String())
-	for _, c := range defaultCycle {
-		r, g, bl := parseHex(c)[0], parseHex(c)[1], parseHex(c)[2]
-		if strings.Contains(s, c) || strings.Contains(s, strings.ToLower(rgbText(r, g, bl))) {
-			t.Errorf("%s: the SVG uses the default-cycle colour %s", name, c)
-		}
+	if off := OffStyle(b.String()); len(off) > 0 {
+		t.Errorf("%s: colours outside the project's palette: %v", name, off)
 	}
 	return b.String()
-}
-
-func rgbText(r, g, b float64) string {
-	return "rgb(" + itoa(int(r)) + "," + itoa(int(g)) + "," + itoa(int(b)) + ")"
-}
-
-func itoa(v int) string {
-	if v == 0 {
-		return "0"
-	}
-	s := ""
-	for ; v > 0; v /= 10 {
-		s = string(rune('0'+v%10)) + s
-	}
-	return s
 }
 
 // slopesResult is a correlation-sum result with nine dimensions whose slopes saturate at 1.2

@@ -16,6 +16,8 @@ package figure
 import (
 	"image/color"
 	"math"
+	"regexp"
+	"strconv"
 
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/font"
@@ -95,6 +97,47 @@ func Second() color.Color { return okabeIto[1] }
 
 // Mark is the colour of a chosen value (a chosen lag, a fitted line): reddish purple.
 func Mark() color.Color { return okabeIto[3] }
+
+// InStyle reports whether c may appear in a figure: a colour of the palette, a neutral grey
+// (reference lines, grid, text) or a light tint (Faint bands, backgrounds: every channel at
+// 0xd0 or more).
+func InStyle(c color.Color) bool {
+	r, g, b, _ := c.RGBA()
+	r, g, b = r>>8, g>>8, b>>8
+	if r == g && g == b || r >= 0xd0 && g >= 0xd0 && b >= 0xd0 {
+		return true
+	}
+	for _, p := range okabeIto {
+		if uint32(p.R) == r && uint32(p.G) == g && uint32(p.B) == b {
+			return true
+		}
+	}
+	return false
+}
+
+// OffStyle returns the colours written in an SVG or HTML text (#rrggbb or rgb(r,g,b)) that
+// are not InStyle: what a test of the project's palette looks for.
+func OffStyle(text string) []string {
+	var off []string
+	for _, m := range colourText.FindAllStringSubmatch(text, -1) {
+		var c color.RGBA
+		if m[1] != "" {
+			v, _ := strconv.ParseUint(m[1], 16, 32)
+			c = color.RGBA{R: uint8(v >> 16), G: uint8(v >> 8), B: uint8(v), A: 0xff}
+		} else {
+			r, _ := strconv.Atoi(m[2])
+			g, _ := strconv.Atoi(m[3])
+			b, _ := strconv.Atoi(m[4])
+			c = color.RGBA{R: uint8(r), G: uint8(g), B: uint8(b), A: 0xff}
+		}
+		if !InStyle(c) {
+			off = append(off, m[0])
+		}
+	}
+	return off
+}
+
+var colourText = regexp.MustCompile(`#([0-9a-fA-F]{6})\b|rgb\((\d+),\s*(\d+),\s*(\d+)\)`)
 
 // Guide is the colour of reference levels and thresholds (mid grey).
 func Guide() color.Color { return color.RGBA{R: 0x88, G: 0x88, B: 0x88, A: 0xff} }

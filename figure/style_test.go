@@ -18,11 +18,6 @@ import (
 	"gonum.org/v1/plot/vg/vgimg"
 )
 
-// defaultCycle is the default colour cycle of a widely used plotting library, which the
-// palette must not copy (issue 15), plus the two colours that copied it before this package.
-var defaultCycle = []string{"#1f77b4", "#ff7f0e", "#2ca02c", "#d62728", "#9467bd", "#8c564b", "#e377c2", "#7f7f7f", "#bcbd22", "#17becf",
-	"#1f5fa8", "#d96b0b"}
-
 func hex(c color.Color) string {
 	r, g, b, _ := c.RGBA()
 	return fmt.Sprintf("#%02x%02x%02x", r>>8, g>>8, b>>8)
@@ -33,46 +28,34 @@ func parseHex(s string) [3]float64 {
 	return [3]float64{float64(v >> 16 & 0xff), float64(v >> 8 & 0xff), float64(v & 0xff)}
 }
 
-func dist(a, b [3]float64) float64 {
-	return math.Sqrt((a[0]-b[0])*(a[0]-b[0]) + (a[1]-b[1])*(a[1]-b[1]) + (a[2]-b[2])*(a[2]-b[2]))
-}
-
-// TestPaletteOkabeIto checks the palette: the eight colours of Okabe & Ito (2008, "Color
-// Universal Design", the CUD set: black E69F00 56B4E9 009E73 F0E442 0072B2 D55E00 CC79A7), none
-// of them a colour of the default cycle, and the sequence not the cycle's: the first two curve
-// colours are not the cycle's first two (blue, then orange) within a visible distance.
+// TestPaletteOkabeIto checks the palette: exactly the eight colours of Okabe & Ito (2008,
+// "Color Universal Design", the CUD set: black E69F00 56B4E9 009E73 F0E442 0072B2 D55E00
+// CC79A7), in the project's own order (blue, vermillion, bluish green, reddish purple, sky
+// blue, orange, black, yellow: style.go), and role colours that are palette colours or neutral
+// greys.
 func TestPaletteOkabeIto(t *testing.T) {
-	cud := map[string]bool{"#000000": true, "#e69f00": true, "#56b4e9": true, "#009e73": true, "#f0e442": true, "#0072b2": true, "#d55e00": true, "#cc79a7": true}
+	order := []string{"#0072b2", "#d55e00", "#009e73", "#cc79a7", "#56b4e9", "#e69f00", "#000000", "#f0e442"}
+	cud := map[string]bool{}
+	for _, h := range order {
+		cud[h] = true
+	}
 	cs := Colors()
-	if len(cs) != 8 {
+	if len(cs) != len(order) {
 		t.Fatalf("%d colours, want the 8 of the CUD set", len(cs))
 	}
-	seen := map[string]bool{}
-	for _, c := range cs {
-		h := hex(c)
-		if !cud[h] {
-			t.Errorf("%s is not an Okabe–Ito colour", h)
-		}
-		seen[h] = true
-		for _, d := range defaultCycle {
-			if h == d {
-				t.Errorf("palette colour %s is a default-cycle colour", h)
-			}
+	for i, c := range cs {
+		if h := hex(c); h != order[i] {
+			t.Errorf("colour %d is %s, want %s (the project's order of the CUD set)", i, h, order[i])
 		}
 	}
-	if len(seen) != 8 {
-		t.Errorf("%d distinct colours, want 8", len(seen))
+	for _, c := range []color.Color{Main(), Second(), Mark()} {
+		if !cud[hex(c)] {
+			t.Errorf("role colour %s is not an Okabe–Ito colour", hex(c))
+		}
 	}
-	// The pair (first, second) must not be (cycle blue, cycle orange) within 40 RGB units;
-	// 40 is about the smallest difference seen side by side (common practice).
-	if dist(parseHex(hex(cs[0])), parseHex("#1f77b4")) < 40 && dist(parseHex(hex(cs[1])), parseHex("#ff7f0e")) < 40 {
-		t.Errorf("the first two colours %s, %s repeat the default cycle's blue, orange", hex(cs[0]), hex(cs[1]))
-	}
-	for _, c := range []color.Color{Main(), Second(), Mark(), Guide(), GridColor()} {
-		for _, d := range defaultCycle {
-			if hex(c) == d {
-				t.Errorf("role colour %s is a default-cycle colour", hex(c))
-			}
+	for _, c := range []color.Color{Guide(), GridColor()} {
+		if p := parseHex(hex(c)); p[0] != p[1] || p[1] != p[2] {
+			t.Errorf("reference colour %s is not a neutral grey", hex(c))
 		}
 	}
 	if f := hex(Faint(Main(), 0)); f != "#ffffff" {
@@ -342,5 +325,18 @@ func TestLogAxisLabelLayout(t *testing.T) {
 	}
 	if v := (layoutLogScale{}).Normalize(1, 100, 10); math.Abs(v-0.5) > 1e-12 {
 		t.Errorf("layoutLogScale(1, 100, 10) = %g, want 0.5 (a log scale)", v)
+	}
+}
+
+// TestOffStyle: the palette, greys and light tints pass; any other colour, written as hex or
+// as rgb(), is reported.
+func TestOffStyle(t *testing.T) {
+	ok := `<path style="stroke:#0072B2;fill:rgb(213,94,0)"/><rect fill="#E2E2E2"/><rect fill="#f1f5f8"/>`
+	if off := OffStyle(ok); len(off) != 0 {
+		t.Errorf("palette, grey and tint reported: %v", off)
+	}
+	bad := `<path style="stroke:#123456"/><path style="fill:rgb(10,200,30)"/>`
+	if off := OffStyle(bad); len(off) != 2 {
+		t.Errorf("OffStyle(%q) = %v, want both colours", bad, off)
 	}
 }

@@ -12,8 +12,9 @@ import (
 )
 
 // TestSweepFiguresStyle checks the sweep page's figures in the project's style: every text at
-// figure.MinTextSize or more in a sans-serif face, a viewBox on every figure, and none of the
-// default colour cycle of a widely used plotting library (issue 15).
+// figure.MinTextSize or more in a sans-serif face, a viewBox on every figure, and every colour
+// on the page of the project's style (figure.InStyle: the palette, a neutral grey or a light
+// tint; issue 15: the palette is our own).
 func TestSweepFiguresStyle(t *testing.T) {
 	rows := logisticRows()
 	for i := range rows {
@@ -32,7 +33,6 @@ func TestSweepFiguresStyle(t *testing.T) {
 		t.Fatalf("%d figures on the page, want 5", len(svgs))
 	}
 	size := regexp.MustCompile(`font-size:([0-9.]+)px`)
-	cycle := []string{"#1f77b4", "#ff7f0e", "#2ca02c", "#d62728", "#9467bd", "#8c564b", "#e377c2", "#7f7f7f", "#bcbd22", "#17becf"}
 	for i, s := range svgs {
 		if !strings.Contains(s, "viewBox") {
 			t.Errorf("figure %d: no viewBox", i)
@@ -46,16 +46,19 @@ func TestSweepFiguresStyle(t *testing.T) {
 				t.Errorf("figure %d: text at %s px, want at least %g", i, m[1], figure.MinTextSize.Points())
 			}
 		}
-		low := strings.ToLower(s)
-		for _, c := range cycle {
-			if strings.Contains(low, c) {
-				t.Errorf("figure %d: default-cycle colour %s", i, c)
-			}
-		}
 	}
-	for _, c := range cycle {
-		if strings.Contains(strings.ToLower(page), c) {
-			t.Errorf("page: default-cycle colour %s (the key)", c)
+	palette := map[[3]uint64]bool{}
+	for _, c := range figure.Colors() {
+		r, g, b, _ := c.RGBA()
+		palette[[3]uint64{uint64(r >> 8), uint64(g >> 8), uint64(b >> 8)}] = true
+	}
+	for _, h := range regexp.MustCompile(`#[0-9a-fA-F]{6}\b`).FindAllString(page, -1) {
+		v, _ := strconv.ParseUint(h[1:], 16, 32)
+		c := [3]uint64{v >> 16 & 0xff, v >> 8 & 0xff, v & 0xff}
+		grey := c[0] == c[1] && c[1] == c[2]
+		tint := c[0] >= 0xd0 && c[1] >= 0xd0 && c[2] >= 0xd0 // bands and backgrounds
+		if !grey && !tint && !palette[c] {
+			t.Errorf("page: colour %s is not of the project's palette", h)
 		}
 	}
 }
