@@ -14,6 +14,7 @@ package report
 import (
 	"bytes"
 	"encoding/json"
+	"errors"
 	"fmt"
 	"os"
 	"path/filepath"
@@ -137,6 +138,21 @@ func (r *Result) Status() string {
 		return StatusPartial
 	}
 	return StatusOK
+}
+
+// NoAnswer is nil when Status is StatusOK; otherwise an error naming why each stage without
+// an answer gave none, in stage order (the report is still written).
+func (r *Result) NoAnswer() error {
+	var why []string
+	for _, k := range r.Keys {
+		if e, ok := r.Errors[k]; ok {
+			why = append(why, e)
+		}
+	}
+	if len(why) == 0 {
+		return nil
+	}
+	return errors.New("some stages gave no answer (the report is written): " + strings.Join(why, "; "))
 }
 
 // Run runs the stages in order. before is called with a stage's key before it runs and after

@@ -1,11 +1,8 @@
 package main
 
 import (
-	"errors"
 	"fmt"
-	"os"
 	"path/filepath"
-	"strings"
 
 	"github.com/spf13/cobra"
 	"github.com/spf13/pflag"
@@ -141,9 +138,6 @@ func (a *app) runReport(cmd *cobra.Command, path string, args []string, o *repor
 	if err := checkReportOptions(o); err != nil {
 		return err
 	}
-	if fi, err := os.Stat(o.output); err == nil && !fi.IsDir() {
-		return usagef("report: -o %s is a file, not a directory", o.output)
-	}
 	protect := []string{}
 	if !o.demo && path != "-" {
 		protect = append(protect, path)
@@ -185,26 +179,8 @@ func (a *app) runReport(cmd *cobra.Command, path string, args []string, o *repor
 		}
 		fmt.Fprintf(a.stdout, "page: %s\n", filepath.Join(o.output, "report.html"))
 	}
-	if res.Status() != report.StatusOK {
-		var why []string
-		for _, k := range res.Keys {
-			if e, ok := res.Errors[k]; ok {
-				why = append(why, e)
-			}
-		}
-		return noAnswer(errors.New("report: some stages gave no answer (the report is written): " + strings.Join(why, "; ")))
+	if err := res.NoAnswer(); err != nil {
+		return noAnswer(fmt.Errorf("report: %w", err))
 	}
 	return nil
-}
-
-// printSummary writes the summary block of the page as a table on stdout.
-func (a *app) printSummary(sm *report.Summary) error {
-	if sm == nil {
-		return nil
-	}
-	var rows [][]string
-	for _, r := range sm.Rows() {
-		rows = append(rows, []string{r[0], r[1]})
-	}
-	return a.table(rows)
 }

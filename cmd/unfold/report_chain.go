@@ -134,3 +134,15 @@ func (a *app) newReportParams(o *reportOptions) reportParams {
 	return reportParams{Lag: o.lag, Dim: o.dim, MaxDim: o.maxDim, Theiler: o.theiler, MaxLag: o.maxLag, MI: o.mi,
 		Norm: o.norm, Azimuth: o.azimuth, Elevation: o.elevation, PNG: o.png, Threads: a.threads()}
 }
+
+// printSummary writes the summary block of the page as a table on stdout.
+func (a *app) printSummary(sm *report.Summary) error {
+	if sm == nil {
+		return nil
+	}
+	var rows [][]string
+	for _, r := range sm.Rows() {
+		rows = append(rows, []string{r[0], r[1]})
+	}
+	return a.table(rows)
+}
