@@ -169,6 +169,11 @@ type Output[P, B any] struct {
 	Body             B
 }
 
+// newOutput is the stage object of command with its envelope.
+func newOutput[P, B any](command, version string, in *Input, p P, b B) Output[P, B] {
+	return Output[P, B]{Command: command, Version: version, Input: in, Params: p, Body: b}
+}
+
 // MarshalJSON writes the envelope (see Envelope), compact.
 func (o Output[P, B]) MarshalJSON() ([]byte, error) {
 	b, err := Envelope(o.Command, o.Version, o.Input, o.Params, o.Body)

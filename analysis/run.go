@@ -248,7 +248,6 @@ func Run(ctx context.Context, s *series.Series, opt Options) (*Result, error) {
 	}
 	e := &Env{Threads: opt.Threads, Seed: seed, Notef: opt.Notef, Progress: opt.Progress, Read: opt.Read, Prep: opt.Prep}
 	res := &Result{Stages: []StageRecord{}}
-	out := func(command string) (string, string, *Input) { return command, opt.Version, in }
 
 	var lag int
 	var lagMethod string
@@ -262,6 +261,13 @@ func Run(ctx context.Context, s *series.Series, opt Options) (*Result, error) {
 	var noLyap bool
 	var d2 *FractalRun
 	var scaleExp int
+	// noEmbedding is the answer of a stage that needs the embedding when none was chosen.
+	noEmbedding := func(key string) error {
+		if c != nil {
+			return nil
+		}
+		return NoAnswer(fmt.Errorf("%s: %s: no embedding (%v)", key, path, chooseErr))
+	}
 
 	stages := []struct {
 		key string
@@ -272,9 +278,7 @@ func Run(ctx context.Context, s *series.Series, opt Options) (*Result, error) {
 			if err != nil {
 				return err
 			}
-			st := &InspectStage{Summary: sm}
-			st.Command, st.Version, st.Input = out("inspect")
-			st.Params, st.Body = p, b
+			st := &InspectStage{Output: newOutput("inspect", opt.Version, in, p, b), Summary: sm}
 			res.Inspect = st
 			return nil
 		}},
@@ -289,9 +293,7 @@ func Run(ctx context.Context, s *series.Series, opt Options) (*Result, error) {
 			if lag == 0 {
 				lag, lagMethod = ch.Lag, ch.Method
 			}
-			st := &LagStage{Choice: ch}
-			st.Command, st.Version, st.Input = out("lag")
-			st.Params, st.Body = p, b
+			st := &LagStage{Output: newOutput("lag", opt.Version, in, p, b), Choice: ch}
 			res.Lag = st
 			return nil
 		}},
@@ -322,9 +324,7 @@ func Run(ctx context.Context, s *series.Series, opt Options) (*Result, error) {
 				return NoAnswer(fmt.Errorf("dim: %s: %w", path, c.DimErr))
 			}
 			p, b := e.DimJSON(s, c, nil)
-			st := &DimStage{Choice: c.DimChoice}
-			st.Command, st.Version, st.Input = out("dim")
-			st.Params, st.Body = p, b
+			st := &DimStage{Output: newOutput("dim", opt.Version, in, p, b), Choice: c.DimChoice}
 			res.Dim = st
 			var noDim error
 			if c.DimChoice.Dimension == 0 {
@@ -336,8 +336,8 @@ func Run(ctx context.Context, s *series.Series, opt Options) (*Result, error) {
 			return noDim
 		}},
 		{"embed", func() error {
-			if c == nil {
-				return NoAnswer(fmt.Errorf("embed: %s: no embedding (%v)", path, chooseErr))
+			if err := noEmbedding("embed"); err != nil {
+				return err
 			}
 			eo := DefaultEmbedOptions()
 			eo.Azimuth, eo.Elevation, eo.Plot = az, el, "figures/embed.svg"
@@ -345,16 +345,14 @@ func Run(ctx context.Context, s *series.Series, opt Options) (*Result, error) {
 			if err != nil {
 				return err
 			}
-			st := &EmbedStage{Embedding: em}
-			st.Command, st.Version, st.Input = out("embed")
-			st.Params, st.Body = p, b
+			st := &EmbedStage{Output: newOutput("embed", opt.Version, in, p, b), Embedding: em}
 			res.Embed = st
 			return nil
 		}},
 		{"lyapunov", func() error {
 			noLyap = true
-			if c == nil {
-				return NoAnswer(fmt.Errorf("lyapunov: %s: no embedding (%v)", path, chooseErr))
+			if err := noEmbedding("lyapunov"); err != nil {
+				return err
 			}
 			lo := DefaultLyapunovOptions()
 			lo.Norm, lo.MaxDim = norm, maxDim
@@ -363,9 +361,7 @@ func Run(ctx context.Context, s *series.Series, opt Options) (*Result, error) {
 			if run == nil {
 				return noFit
 			}
-			st := &LyapunovStage{Run: run}
-			st.Command, st.Version, st.Input = out("lyapunov")
-			st.Params, st.Body = p, b
+			st := &LyapunovStage{Output: newOutput("lyapunov", opt.Version, in, p, b), Run: run}
 			res.Lyapunov = st
 			if b.LambdaMax != nil {
 				lambda = regime.ExponentOf(run.R)
@@ -374,8 +370,8 @@ func Run(ctx context.Context, s *series.Series, opt Options) (*Result, error) {
 			return noFit
 		}},
 		{"fractal", func() error {
-			if c == nil {
-				return NoAnswer(fmt.Errorf("fractal: %s: no embedding (%v)", path, chooseErr))
+			if err := noEmbedding("fractal"); err != nil {
+				return err
 			}
 			// dimension.CorrelationDimension needs N ≥ 2·W + 100 (W the Theiler window)
 			if need := 2*c.Theiler.Value + 100; s.Len() < need {
@@ -388,15 +384,13 @@ func Run(ctx context.Context, s *series.Series, opt Options) (*Result, error) {
 				return err
 			}
 			d2 = run
-			st := &FractalStage{Run: run}
-			st.Command, st.Version, st.Input = out("fractal")
-			st.Params, st.Body = p, b
+			st := &FractalStage{Output: newOutput("fractal", opt.Version, in, p, b), Run: run}
 			res.Fractal = st
 			return nil
 		}},
 		{"regime", func() error {
-			if c == nil {
-				return NoAnswer(fmt.Errorf("regime: %s: no embedding (%v)", path, chooseErr))
+			if err := noEmbedding("regime"); err != nil {
+				return err
 			}
 			ev := RegimeEvidence{Embedding: c, Lyapunov: lambda, NoLyapunov: noLyap, NoDimension: d2 == nil}
 			if d2 != nil {
@@ -406,9 +400,7 @@ func Run(ctx context.Context, s *series.Series, opt Options) (*Result, error) {
 			if err != nil {
 				return err
 			}
-			st := &RegimeStage{Analysis: an}
-			st.Command, st.Version, st.Input = out("regime")
-			st.Params, st.Body = p, b
+			st := &RegimeStage{Output: newOutput("regime", opt.Version, in, p, b), Analysis: an}
 			res.Regime = st
 			return nil
 		}},
@@ -428,9 +420,7 @@ func Run(ctx context.Context, s *series.Series, opt Options) (*Result, error) {
 			if err != nil {
 				return err
 			}
-			st := &SymbolsStage{Run: run, Stream: buf.Bytes(), Sidecar: sc}
-			st.Command, st.Version, st.Input = out("symbols")
-			st.Params, st.Body = p, run.Result(sc, "", "")
+			st := &SymbolsStage{Output: newOutput("symbols", opt.Version, in, p, run.Result(sc, "", "")), Run: run, Stream: buf.Bytes(), Sidecar: sc}
 			res.Symbols = st
 			return nil
 		}},
@@ -445,9 +435,7 @@ func Run(ctx context.Context, s *series.Series, opt Options) (*Result, error) {
 			if err != nil {
 				return err
 			}
-			st := &EntropyStage{}
-			st.Command, st.Version, st.Input = "entropy", opt.Version, ein
-			st.Params, st.Body = p, b
+			st := &EntropyStage{Output: newOutput("entropy", opt.Version, ein, p, b)}
 			res.Entropy = st
 			return nil
 		}},

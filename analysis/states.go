@@ -164,10 +164,8 @@ func (e *Env) statesStage(res *Result, version string) error {
 		return err
 	}
 	params.From, params.Partition = "stream", sy.Sidecar.Partition
-	st := &StatesStage{Run: run}
-	st.Command, st.Version = "states", version
-	st.Input = &Input{Path: StatesStreamName, SHA256: fmt.Sprintf("%x", sha256.Sum256(sy.Stream)), Samples: len(x), Dt: 1}
-	st.Params, st.Body = params, body
+	in := &Input{Path: StatesStreamName, SHA256: fmt.Sprintf("%x", sha256.Sum256(sy.Stream)), Samples: len(x), Dt: 1}
+	st := &StatesStage{Output: newOutput("states", version, in, params, body), Run: run}
 	res.States = st
 	return nil
 }
