@@ -17,7 +17,6 @@ import (
 type fractalOptions struct {
 	in        inputOptions
 	lag       int
-	dim       int
 	maxDim    int
 	theiler   int
 	radii     string
@@ -71,7 +70,7 @@ func addFractalFlags(f *pflag.FlagSet, o *fractalOptions) {
 	d := analysis.DefaultFractalOptions()
 	f.IntVar(&o.lag, "lag", d.Lag, "delay in samples (default: chosen from the mutual information)")
 	f.IntVar(&o.maxDim, "max-dim", d.MaxDim, "largest embedding dimension")
-	aliasFlag(f, "dim", "max-dim") // o.dim is no longer bound: --dim sets o.maxDim
+	aliasFlag(f, "dim", "max-dim") // the old --dim sets o.maxDim
 	f.IntVar(&o.theiler, "theiler", d.Theiler, "Theiler window in samples (default: 1/e decay time of the autocorrelation; 0 excludes only the point itself)")
 	f.StringVar(&o.radii, "radii", d.Radii, "radii in signal units: a comma list (0.01,0.02,…) or lo:hi:count log-spaced (default: 40 radii from 10^-3.5 of the range up to the range)")
 	o.euclidean = d.Euclidean
@@ -81,8 +80,6 @@ func addFractalFlags(f *pflag.FlagSet, o *fractalOptions) {
 	f.StringVar(&o.csv, "csv", "", "write the correlation sums (dimension, r, c, pairs, local_slope) to this CSV file")
 	f.StringVar(&o.plot, "plot", "", "draw the local slopes d log C / d log r against r for every m (.png or .svg)")
 }
-
-type fractalRun = analysis.FractalRun
 
 func (o *fractalOptions) options() analysis.FractalOptions {
 	return analysis.FractalOptions{Lag: o.lag, Theiler: o.theiler, MaxDim: o.maxDim, Radii: o.radii, Euclidean: o.euclidean,

@@ -111,8 +111,6 @@ func addLyapunovFlags(f *pflag.FlagSet, o *lyapunovOptions) {
 	f.StringVar(&o.plot, "plot", "", "draw the curves, the fit range and the fitted line (.png or .svg)")
 }
 
-type lyapunovRun = analysis.LyapunovRun
-
 func (o *lyapunovOptions) options() analysis.LyapunovOptions {
 	return analysis.LyapunovOptions{Lag: o.lag, Dim: o.dim, MaxDim: o.maxDim, Theiler: o.theiler, Method: o.method,
 		Norm: o.norm, Horizon: o.horizon, Eps: o.eps, MaxNeighbors: o.maxNeighbors, FitFrom: o.fitFrom, FitTo: o.fitTo,
