@@ -9,6 +9,7 @@ import (
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/vg"
 
+	"unfold/series"
 	"unfold/spectral"
 )
 
@@ -138,14 +139,7 @@ func timesPow10(v float64, k int) float64 {
 // is a finite normal number everywhere; otherwise (the power itself is beyond float64) it is
 // returned relative to its peak and relative is true.
 func welchScaled(x []float64, dt float64) (f, pw []float64, relative bool) {
-	var big float64
-	for _, v := range x {
-		big = math.Max(big, math.Abs(v))
-	}
-	e := 0
-	if big > 0 && !math.IsInf(big, 0) {
-		_, e = math.Frexp(big)
-	}
+	e := series.ScaleExponent(x)
 	y := make([]float64, len(x))
 	for i, v := range x {
 		y[i] = math.Ldexp(v, -e)
