@@ -394,6 +394,7 @@ func (r *Reader) ReadAll() ([]uint8, error) {
 type File struct {
 	*Reader
 	f *os.File
+	h hash.Hash // of the file's bytes as read
 }
 
 // Open opens the stream at path and reads its sidecar from SidecarPath(path).
@@ -415,13 +416,18 @@ func Open(path string) (*File, error) {
 	if err != nil {
 		return nil, fmt.Errorf("symbolic: %w", err)
 	}
-	r, err := NewReader(f, sc, path)
+	h := sha256.New()
+	r, err := NewReader(io.TeeReader(f, h), sc, path)
 	if err != nil {
 		f.Close()
 		return nil, err
 	}
-	return &File{Reader: r, f: f}, nil
+	return &File{Reader: r, f: f, h: h}, nil
 }
+
+// SHA256 is the hex SHA-256 of the stream file's bytes read so far: the file's own hash once
+// the stream has been read to its end (the input hash of the JSON envelope).
+func (f *File) SHA256() string { return hex.EncodeToString(f.h.Sum(nil)) }
 
 // Close closes the stream file.
 func (f *File) Close() error { return f.f.Close() }

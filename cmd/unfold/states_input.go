@@ -1,10 +1,6 @@
 package main
 
 import (
-	"unfold/analysis"
-
-	"crypto/sha256"
-	"encoding/hex"
 	"errors"
 	"fmt"
 	"io"
@@ -12,6 +8,7 @@ import (
 
 	"github.com/spf13/cobra"
 
+	"unfold/analysis"
 	"unfold/series"
 	"unfold/symbolic"
 )
@@ -34,7 +31,7 @@ func (a *app) loadStatesStream(cmd *cobra.Command, path string, so *symbolsOptio
 	sp := symbolic.SidecarPath(path)
 	if path != "-" {
 		if _, err := os.Stat(sp); err == nil {
-			return readStatesStream(path, sp)
+			return readStatesStream(path)
 		} else if !errors.Is(err, os.ErrNotExist) {
 			return nil, err
 		}
@@ -58,35 +55,22 @@ func (a *app) loadStatesStream(cmd *cobra.Command, path string, so *symbolsOptio
 }
 
 // readStatesStream reads a whole symbol stream written by `symbols`, checked against its sidecar.
-func readStatesStream(path, sp string) (*statesStream, error) {
-	sf, err := os.Open(sp)
-	if err != nil {
-		return nil, err
-	}
-	sc, err := symbolic.ReadSidecar(sf, sp)
-	sf.Close()
-	if err != nil {
-		return nil, err
-	}
-	f, err := os.Open(path)
+func readStatesStream(path string) (*statesStream, error) {
+	f, err := symbolic.Open(path)
 	if err != nil {
 		return nil, err
 	}
 	defer f.Close()
-	h := sha256.New()
-	r, err := symbolic.NewReader(io.TeeReader(f, h), sc, path)
+	x, err := f.ReadAll()
 	if err != nil {
 		return nil, err
 	}
-	x, err := r.ReadAll()
-	if err != nil {
-		return nil, err
-	}
+	sc := f.Sidecar()
 	if sc.AlphabetSize < 2 {
 		return nil, noAnswer(fmt.Errorf("states: %s: the alphabet has one symbol: there is one state and nothing to predict", path))
 	}
 	return &statesStream{symbols: x, k: sc.AlphabetSize, alphabet: sc.Alphabet, origin: "stream", part: sc.Partition,
-		in: &inputInfo{Path: path, SHA256: hex.EncodeToString(h.Sum(nil)), Samples: len(x), Dt: 1}}, nil
+		in: &inputInfo{Path: path, SHA256: f.SHA256(), Samples: len(x), Dt: 1}}, nil
 }
 
 // writeStatesFile writes one output file of `states` atomically, never over the input.
