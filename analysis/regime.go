@@ -2,6 +2,7 @@ package analysis
 
 import (
 	"fmt"
+	"slices"
 
 	"unfold/dimension"
 	"unfold/embed"
@@ -43,13 +44,25 @@ type RegimeParams struct {
 	DimensionFrom string `json:"dimension_from,omitempty"`
 }
 
+// LinesJSON is the line analysis of the regime stage (regime.LineAnalysis): its kind, the
+// significant lines' frequencies in ascending order and the generating frequencies, in
+// cycles per time unit.
+type LinesJSON struct {
+	Kind         string    `json:"kind"`
+	Frequencies  []float64 `json:"frequencies"`
+	Fundamentals []float64 `json:"fundamentals"`
+}
+
 // RegimeResult is the JSON body of the regime stage.
 type RegimeResult struct {
 	Regime     string                 `json:"regime"`
 	Confidence float64                `json:"confidence"`
 	Rule       string                 `json:"rule"`
 	Evidence   map[string]regime.Item `json:"evidence"`
-	Tests      []*regime.RankTest     `json:"surrogate_tests"`
+	// Lines are the significant spectral lines the verdict read (null when the line
+	// analysis could not run).
+	Lines *LinesJSON         `json:"lines"`
+	Tests []*regime.RankTest `json:"surrogate_tests"`
 	// Unused names the evidence the verdict did not use, each with the reason (tests the
 	// record is too short for among them).
 	Unused []string `json:"unused"`
@@ -128,6 +141,14 @@ func (e *Env) Regime(path string, s *series.Series, o RegimeOptions, ev RegimeEv
 	}
 	if res.Unused == nil {
 		res.Unused = []string{}
+	}
+	if l := evd.Lines; l != nil {
+		lj := &LinesJSON{Kind: string(l.Kind), Frequencies: []float64{}, Fundamentals: append([]float64{}, l.Fundamentals...)}
+		for _, pk := range l.Peaks {
+			lj.Frequencies = append(lj.Frequencies, pk.Freq)
+		}
+		slices.Sort(lj.Frequencies)
+		res.Lines = lj
 	}
 	if set := an.Surrogates; set != nil {
 		res.SamplesUsed, res.SurrogateSegment = set.Length, [2]int{set.Start, set.Start + set.Length}

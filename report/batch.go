@@ -646,6 +646,11 @@ type resultHead struct {
 	Regime *struct {
 		Regime     *string  `json:"regime"`
 		Confidence *float64 `json:"confidence"`
+		Lines      *struct {
+			Kind         string    `json:"kind"`
+			Frequencies  []float64 `json:"frequencies"`
+			Fundamentals []float64 `json:"fundamentals"`
+		} `json:"lines"`
 	} `json:"regime"`
 	States *struct {
 		EntropyRate           *float64 `json:"entropy_rate"`

@@ -5,15 +5,12 @@ import (
 	"io/fs"
 	"math"
 	"path/filepath"
-	"sort"
 	"strings"
 
-	"unfold/regime"
 	"unfold/series"
 )
 
-// SweepOptions say how the records are read back for the bifurcation diagram and the
-// spectral lines.
+// SweepOptions say how the records are read back for the bifurcation diagram.
 type SweepOptions struct {
 	// Read overrides how each record is read; its zero value reads each record with the
 	// column, gap rule and sampling interval recorded in its result.json.
@@ -38,8 +35,9 @@ func interval(iv []*float64) (float64, float64) {
 }
 
 // SweepRows reads the result of every record of list from the batch directory dir (one
-// folder per record named FolderName(CanonicalPath(path)), holding result.json) and reads each record again
-// for its bifurcation-diagram values and spectral lines. A record without a result gets
+// folder per record named FolderName(CanonicalPath(path)), holding result.json; the spectral
+// lines are the regime stage's) and reads each record again for its bifurcation-diagram
+// values. A record without a result gets
 // status "missing"; one whose result cannot be read gets status "error" with the reason. The
 // rows are sorted by the parameter.
 func SweepRows(dir string, list *SweepList, opt SweepOptions) []SweepRow {
@@ -90,6 +88,9 @@ func sweepRow(dir string, e SweepEntry, opt SweepOptions) SweepRow {
 			r.Regime = *h.Regime.Regime
 		}
 		r.Confidence = val(h.Regime.Confidence)
+		if l := h.Regime.Lines; l != nil { // the regime stage's line analysis
+			r.LineKind, r.Frequencies, r.Fundamentals = l.Kind, l.Frequencies, l.Fundamentals
+		}
 	}
 	if h.States != nil {
 		r.Complexity = val(h.States.StatisticalComplexity)
@@ -124,14 +125,6 @@ func sweepRow(dir string, e SweepEntry, opt SweepOptions) SweepRow {
 	}
 	r.TimeUnit, r.Unit = s.TimeUnit, s.Unit
 	r.Points, r.PointsAreMaxima = BifurcationPoints(s.Values, max(opt.MaxPoints, 0))
-	if l, err := regime.LineAnalysis(s.Values, s.Dt, regime.LineOptions{}); err == nil {
-		r.LineKind = string(l.Kind)
-		for _, pk := range l.Peaks {
-			r.Frequencies = append(r.Frequencies, pk.Freq)
-		}
-		sort.Float64s(r.Frequencies)
-		r.Fundamentals = append([]float64(nil), l.Fundamentals...)
-	}
 	return r
 }
 

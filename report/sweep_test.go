@@ -12,10 +12,12 @@ import (
 	"os"
 	"path/filepath"
 	"regexp"
+	"slices"
 	"strings"
 	"testing"
 
 	"unfold/models"
+	"unfold/regime"
 	"unfold/series"
 )
 
@@ -181,6 +183,17 @@ func writeSweepFixture(t *testing.T) (string, *SweepList) {
 		if err := os.WriteFile(path, b.Bytes(), 0o644); err != nil {
 			t.Fatal(err)
 		}
+		// the regime stage's line analysis of the record, as the chain writes it
+		la, err := regime.LineAnalysis(tr.Column("x"), 1, regime.LineOptions{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		var freqs []float64
+		for _, pk := range la.Peaks {
+			freqs = append(freqs, pk.Freq)
+		}
+		slices.Sort(freqs)
+		lines := map[string]any{"kind": string(la.Kind), "frequencies": freqs, "fundamentals": la.Fundamentals}
 		res := map[string]any{
 			"command": "report", "status": StatusOK,
 			"input":      map[string]any{"path": path, "sha256": "x", "samples": 1000, "dt": 1},
@@ -188,11 +201,11 @@ func writeSweepFixture(t *testing.T) (string, *SweepList) {
 			"lag":        map[string]any{"lag": 1}, "dim": map[string]any{"dimension": 2},
 			"lyapunov": map[string]any{"lambda_max": -0.2, "interval": []any{-0.25, -0.15}},
 			"fractal":  map[string]any{"d2": 0.1, "interval": []any{nil, 0.2}},
-			"regime":   map[string]any{"regime": "periodic", "confidence": 0.9},
+			"regime":   map[string]any{"regime": "periodic", "confidence": 0.9, "lines": lines},
 		}
 		if r == 4 {
 			res["lyapunov"] = map[string]any{"lambda_max": 0.69, "interval": []any{0.66, 0.72}}
-			res["regime"] = map[string]any{"regime": "chaotic", "confidence": 0.8}
+			res["regime"] = map[string]any{"regime": "chaotic", "confidence": 0.8, "lines": lines}
 			res["states"] = map[string]any{"statistical_complexity": 0, "entropy_rate": 1}
 		}
 		if r == 3.5 {
