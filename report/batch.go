@@ -231,6 +231,10 @@ func FolderName(path string) string {
 	return name + "-" + hex.EncodeToString(h[:4])
 }
 
+// ResultFolderName is the name of the result folder RunBatch gives the input at path, however the
+// path is spelled: FolderName of its CanonicalPath.
+func ResultFolderName(path string) string { return FolderName(CanonicalPath(path)) }
+
 // FileSHA256 is the hex SHA-256 of a file's bytes as stored (as series.ReadFile records it).
 func FileSHA256(path string) (string, error) {
 	f, err := os.Open(path)
@@ -370,7 +374,7 @@ func RunBatch(paths []string, opt BatchOptions) (BatchStats, error) {
 // runOne analyses one input unless its result is complete; it returns the status written
 // ("skipped" when nothing was done) and a short message.
 func runOne(path string, opt BatchOptions) (string, string, error) {
-	name := FolderName(path)
+	name := ResultFolderName(path)
 	folder := filepath.Join(opt.Dir, name)
 	sum, herr := FileSHA256(path)
 	if herr == nil {

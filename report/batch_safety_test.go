@@ -66,7 +66,7 @@ func TestBatchNeverReadsItsOutput(t *testing.T) {
 	}
 	// A copy of a result folder elsewhere is not an input either, nor its figures.
 	other := t.TempDir()
-	os.CopyFS(filepath.Join(other, "copy"), os.DirFS(filepath.Join(out, FolderName(CanonicalPath(filepath.Join(d, "a.csv"))))))
+	os.CopyFS(filepath.Join(other, "copy"), os.DirFS(filepath.Join(out, ResultFolderName(filepath.Join(d, "a.csv")))))
 	writeInputs(t, other, "c.csv")
 	paths, err := ListInputs([]string{other, filepath.Join(other, "copy", "result.json")}, nil, "")
 	if err != nil || len(paths) != 1 || filepath.Base(paths[0]) != "c.csv" {
@@ -113,7 +113,7 @@ func TestBatchKillBetweenRenames(t *testing.T) {
 	if _, err := RunBatch(paths, opt); err != nil {
 		t.Fatal(err)
 	}
-	name := FolderName(CanonicalPath(paths[0]))
+	name := ResultFolderName(paths[0])
 	// The state a kill leaves: the result moved aside, a half-written new one in .tmp-.
 	if err := os.Rename(filepath.Join(out, name), filepath.Join(out, oldPrefix+name+"-zz1")); err != nil {
 		t.Fatal(err)
@@ -147,7 +147,7 @@ func TestBatchMergeReportsMissing(t *testing.T) {
 	if _, err := RunBatch(paths, BatchOptions{Dir: out, Version: "v", Analyze: okAnalyze}); err != nil {
 		t.Fatal(err)
 	}
-	os.RemoveAll(filepath.Join(out, FolderName(CanonicalPath(paths[1]))))
+	os.RemoveAll(filepath.Join(out, ResultFolderName(paths[1])))
 	rows, err := Merge(out)
 	if err != nil || len(rows) != 2 {
 		t.Fatalf("%q %v", rows, err)

@@ -35,7 +35,7 @@ func interval(iv []*float64) (float64, float64) {
 }
 
 // SweepRows reads the result of every record of list from the batch directory dir (one
-// folder per record named FolderName(CanonicalPath(path)), holding result.json; the spectral
+// folder per record named ResultFolderName(path), holding result.json; the spectral
 // lines are the regime stage's) and reads each record again for its bifurcation-diagram
 // values. A record without a result gets
 // status "missing"; one whose result cannot be read gets status "error" with the reason. The
@@ -54,7 +54,7 @@ func sweepRow(dir string, e SweepEntry, opt SweepOptions) SweepRow {
 	r := SweepRow{Value: e.Value, Path: e.Path, Labels: e.Labels, Dt: nan, Confidence: nan,
 		LambdaMax: nan, LambdaLo: nan, LambdaHi: nan, D2: nan, D2Lo: nan, D2Hi: nan,
 		EntropyRate: nan, Complexity: nan}
-	p := filepath.Join(dir, FolderName(CanonicalPath(e.Path)), "result.json") // as RunBatch names it
+	p := filepath.Join(dir, ResultFolderName(e.Path), "result.json")
 	h, err := decodeResult(p)
 	if errors.Is(err, fs.ErrNotExist) {
 		r.Status, r.Error = "missing", "no result yet"

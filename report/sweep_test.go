@@ -212,7 +212,7 @@ func writeSweepFixture(t *testing.T) (string, *SweepList) {
 			res["states"] = map[string]any{"statistical_complexity": 2, "entropy_rate": 0}
 		}
 		b2, _ := json.Marshal(res)
-		folder := filepath.Join(out, FolderName(CanonicalPath(path)))
+		folder := filepath.Join(out, ResultFolderName(path))
 		if err := os.MkdirAll(folder, 0o755); err != nil {
 			t.Fatal(err)
 		}

@@ -172,7 +172,7 @@ func (a *app) runBatch(cmd *cobra.Command, args []string, o *batchOptions) error
 }
 
 // batchChain runs the report's chain on paths with the batch machinery (report.RunBatch: one
-// result folder per input named report.FolderName(path), skipped when complete); batch and
+// result folder per input named report.ResultFolderName(path), skipped when complete); batch and
 // sweep both call the chain here.
 func (a *app) batchChain(cmd *cobra.Command, paths []string, ro *reportOptions, jobs int, retryErrors bool) (report.BatchStats, error) {
 	// Each input runs on a quiet copy of the app: no per-stage lines or bars from parallel jobs.
